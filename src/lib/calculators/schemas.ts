@@ -1,0 +1,270 @@
+import { z } from 'zod';
+import { boilingPointUnderCap, checkBoilingPointInput } from './boiling-point';
+import { calculateDrainFill, checkDrainFillInput } from './drain-fill';
+import { CalculatorError, type CalculatorIssue } from './errors';
+import {
+	adjustMix,
+	calculateFreezePoint,
+	calculateGlycolForFreezePoint,
+	checkAdjustMixInput,
+	checkFreezePointInput,
+	checkGlycolForFreezePointInput
+} from './freeze-point';
+import type { CalculatorResult } from './result';
+import { calculateServiceInterval, checkServiceIntervalInput } from './service-interval';
+import { calculateConversion, checkConversionInput, pressureUnits } from './units';
+
+export { CalculatorError } from './errors';
+export type { CalculatorIssue } from './errors';
+export type { CalculatorResult, Quantity } from './result';
+
+/**
+ * Input schemas for the calculators' JSON endpoints and form. Shape and type problems are
+ * caught here; the rules between fields (drain ≤ capacity, a target a table can reach) come
+ * from each calculator's own check, so the endpoint and the function say the same thing.
+ */
+function requiredNumber(label: string) {
+	return z.number({
+		error: (issue) =>
+			issue.input === undefined ? `${label} is required.` : `${label} must be a number.`
+	});
+}
+
+function requiredString(label: string) {
+	return z.string({
+		error: (issue) =>
+			issue.input === undefined ? `${label} is required.` : `${label} must be text.`
+	});
+}
+
+/** Rejects misspelt field names instead of silently ignoring them. */
+function strictObject<T extends z.core.$ZodLooseShape>(shape: T) {
+	return z.strictObject(shape, {
+		error: (issue) =>
+			issue.code === 'unrecognized_keys'
+				? `Unknown field${issue.keys.length === 1 ? '' : 's'}: ${issue.keys.join(', ')}.`
+				: 'Send the input as a JSON object.'
+	});
+}
+
+/** Runs a calculator's own cross-field check and reports its issues at their fields. */
+function addIssues(ctx: z.RefinementCtx, issues: CalculatorIssue[]): void {
+	for (const issue of issues) {
+		ctx.addIssue({
+			code: 'custom',
+			message: issue.message,
+			path: issue.path.split('.').filter(Boolean)
+		});
+	}
+}
+
+const glycolSchema = z.enum(['EG', 'PG'], {
+	error: 'Glycol must be "EG" (ethylene glycol) or "PG" (propylene glycol).'
+});
+const basisSchema = z.enum(['mass', 'volume'], {
+	error: 'Concentration basis must be "mass" or "volume".'
+});
+
+export const conversionInputSchema = strictObject({
+	value: requiredNumber('Value'),
+	from: requiredString('Unit to convert from'),
+	to: requiredString('Unit to convert to')
+}).superRefine((input, ctx) => addIssues(ctx, checkConversionInput(input)));
+
+export const freezePointInputSchema = strictObject({
+	glycol: glycolSchema,
+	basis: basisSchema,
+	percent: requiredNumber('Glycol concentration')
+}).superRefine((input, ctx) => addIssues(ctx, checkFreezePointInput(input)));
+
+export const glycolForFreezePointInputSchema = strictObject({
+	glycol: glycolSchema,
+	basis: basisSchema,
+	freezePointC: requiredNumber('Freeze point')
+}).superRefine((input, ctx) => addIssues(ctx, checkGlycolForFreezePointInput(input)));
+
+export const adjustMixInputSchema = strictObject({
+	glycol: glycolSchema,
+	capacityL: requiredNumber('System capacity'),
+	currentPercent: requiredNumber('Current concentration').optional(),
+	currentFreezePointC: requiredNumber('Measured freeze point').optional(),
+	targetFreezePointC: requiredNumber('Target freeze point'),
+	refillPercent: requiredNumber('Refill strength').optional()
+}).superRefine((input, ctx) => addIssues(ctx, checkAdjustMixInput(input)));
+
+export const drainFillInputSchema = strictObject({
+	capacityL: requiredNumber('System capacity'),
+	drainL: requiredNumber('Drain volume'),
+	cycles: requiredNumber('Number of cycles').optional(),
+	targetFreshPercent: requiredNumber('Target share of fresh coolant').optional()
+}).superRefine((input, ctx) => addIssues(ctx, checkDrainFillInput(input)));
+
+export const boilingPointInputSchema = strictObject({
+	capGauge: strictObject({
+		value: requiredNumber('Cap pressure'),
+		unit: z.enum(pressureUnits, {
+			error: `Cap pressure unit must be one of: ${pressureUnits.join(', ')}.`
+		})
+	}),
+	altitudeM: requiredNumber('Altitude').optional(),
+	glycol: strictObject({
+		type: z.literal('EG', {
+			error: 'The boiling estimate covers ethylene glycol ("EG") mixes only.'
+		}),
+		percent: requiredNumber('Glycol concentration'),
+		basis: basisSchema
+	}).optional()
+}).superRefine((input, ctx) => addIssues(ctx, checkBoilingPointInput(input)));
+
+const isoDate = (label: string) =>
+	requiredString(label).regex(/^\d{4}-\d{2}-\d{2}$/, `${label} must be written as YYYY-MM-DD.`);
+
+export const serviceIntervalInputSchema = strictObject({
+	lastChange: z.discriminatedUnion(
+		'kind',
+		[
+			strictObject({
+				kind: z.literal('changed'),
+				date: isoDate('Date of the last change'),
+				odometerKm: requiredNumber('Odometer at the last change')
+			}),
+			strictObject({
+				kind: z.literal('never'),
+				inServiceDate: isoDate('In-service date')
+			})
+		],
+		{
+			error:
+				'Say whether the coolant was changed ("changed", with date and odometer) or never changed ("never", with the in-service date).'
+		}
+	),
+	currentDate: isoDate("Today's date"),
+	currentOdometerKm: requiredNumber('Current odometer'),
+	averageKmPerDay: requiredNumber('Average distance per day').optional(),
+	settings: strictObject({
+		firstChangeKm: requiredNumber('First change distance').optional(),
+		thenEveryKm: requiredNumber('Change interval').optional(),
+		everyMonths: requiredNumber('Time interval').optional(),
+		dueSoonDays: requiredNumber('Due-soon days').optional(),
+		dueSoonKm: requiredNumber('Due-soon distance').optional()
+	}).optional()
+}).superRefine((input, ctx) => addIssues(ctx, checkServiceIntervalInput(input)));
+
+export const quantitySchema = z.object({ value: z.number(), unit: z.string() });
+
+/** The one result shape every calculator returns (for the OpenAPI document and for clients). */
+export const calculatorResultSchema = z.object({
+	values: z.record(z.string(), z.union([quantitySchema, z.string(), z.boolean(), z.null()])),
+	basis: z.string(),
+	accuracy: z.string().optional(),
+	warnings: z.array(z.string()),
+	cautions: z.array(z.string()),
+	steps: z.array(z.string()).optional()
+});
+
+/** Turns a schema failure into the calculators' one error type, with every issue at its field. */
+export function parseCalculatorInput<S extends z.ZodType>(schema: S, input: unknown): z.output<S> {
+	const parsed = schema.safeParse(input);
+	if (parsed.success) return parsed.data;
+	const issues = parsed.error.issues.map((issue) => ({
+		path: issue.path.map(String).join('.'),
+		message: issue.message
+	}));
+	const first = issues[0];
+	throw new CalculatorError(first.message, first.path || undefined, issues);
+}
+
+export interface CalculatorEntry<S extends z.ZodType = z.ZodType> {
+	name: string;
+	title: string;
+	description: string;
+	inputSchema: S;
+	/** Validates raw input (a JSON body or form values) and calculates; throws CalculatorError. */
+	run(input: unknown): CalculatorResult;
+}
+
+function defineCalculator<S extends z.ZodType>(
+	name: string,
+	title: string,
+	description: string,
+	inputSchema: S,
+	calculate: (input: z.output<S>) => CalculatorResult
+): CalculatorEntry<S> {
+	return {
+		name,
+		title,
+		description,
+		inputSchema,
+		run: (input) => calculate(parseCalculatorInput(inputSchema, input))
+	};
+}
+
+export const calculators = {
+	'unit-conversion': defineCalculator(
+		'unit-conversion',
+		'Unit conversion',
+		'Volume, pressure, torque and temperature between SI and US or imperial units, with exact factors.',
+		conversionInputSchema,
+		calculateConversion
+	),
+	'freeze-point': defineCalculator(
+		'freeze-point',
+		'Freeze point of a coolant mix',
+		'Freeze point of an ethylene or propylene glycol mix from its concentration, from published tables.',
+		freezePointInputSchema,
+		calculateFreezePoint
+	),
+	'glycol-for-freeze-point': defineCalculator(
+		'glycol-for-freeze-point',
+		'Glycol needed for a freeze point',
+		'Concentration of ethylene or propylene glycol that protects down to a given freeze point.',
+		glycolForFreezePointInputSchema,
+		calculateGlycolForFreezePoint
+	),
+	'mix-adjustment': defineCalculator(
+		'mix-adjustment',
+		'Correct the coolant mix',
+		'How much coolant to drain and replace with concentrate (or water) to reach a target freeze point.',
+		adjustMixInputSchema,
+		adjustMix
+	),
+	'drain-and-fill': defineCalculator(
+		'drain-and-fill',
+		'Partial drain-and-fill',
+		'Share of fresh coolant after repeated partial drains, and the cycles needed to reach a target.',
+		drainFillInputSchema,
+		calculateDrainFill
+	),
+	'boiling-point': defineCalculator(
+		'boiling-point',
+		'Boiling point under the cap',
+		'Boiling point of water or an ethylene glycol mix under a pressure cap, at any altitude.',
+		boilingPointInputSchema,
+		boilingPointUnderCap
+	),
+	'service-interval': defineCalculator(
+		'service-interval',
+		'Next coolant change',
+		'When the next coolant change is due, by distance or by time, whichever comes first.',
+		serviceIntervalInputSchema,
+		calculateServiceInterval
+	)
+} as const;
+
+export type CalculatorName = keyof typeof calculators;
+export const calculatorNames = Object.keys(calculators) as CalculatorName[];
+
+export function isCalculatorName(name: string): name is CalculatorName {
+	return Object.hasOwn(calculators, name);
+}
+
+/** Looks a calculator up by its endpoint name and runs it on raw input. */
+export function runCalculator(name: string, input: unknown): CalculatorResult {
+	if (!isCalculatorName(name)) {
+		throw new CalculatorError(
+			`There is no calculator called "${name}". Available: ${calculatorNames.join(', ')}.`,
+			'name'
+		);
+	}
+	return calculators[name].run(input);
+}

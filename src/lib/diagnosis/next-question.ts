@@ -1,0 +1,197 @@
+import type { CompiledRule, CompiledRulebook, FactVector, FiredMask } from './evaluate';
+import { logistic } from './rank';
+import type { Bin, Observation, ObservationGroup, ObservationKind, ObservationValue } from './schema';
+
+/** Answer frequencies that replace the rulebook's, e.g. from a shop's closed cases:
+ * `{ temp_gauge: { normal: 0.4, high_at_idle: 0.3, … }, fan_runs_when_hot: { true: 0.8, false: 0.2 } }`.
+ * For a number observation the keys are its bin values as strings. */
+export type FrequencyOverrides = Record<string, Record<string, number>>;
+
+export interface AnswerOption {
+	value: ObservationValue;
+	probability: number;
+}
+
+export interface NextQuestion {
+	key: string;
+	prompt: string;
+	/** Expected reduction of Σ_c h(p_c), in bits; full precision until a response is built. */
+	expectedGain: number;
+	kind: ObservationKind;
+	group: ObservationGroup;
+	help?: string;
+	cautions: string[];
+	values?: string[];
+	valueLabels?: Record<string, string>;
+	unit?: string;
+	min?: number;
+	max?: number;
+	bins?: Bin[];
+}
+
+export function binaryEntropyBits(probability: number): number {
+	if (probability <= 0 || probability >= 1) return 0;
+	return -(probability * Math.log2(probability) + (1 - probability) * Math.log2(1 - probability));
+}
+
+function listDefaultOptions(observation: Observation): AnswerOption[] {
+	if (observation.kind === 'number') {
+		return observation.bins.map((bin) => ({ value: bin.value, probability: bin.frequency }));
+	}
+	const values: ObservationValue[] = observation.kind === 'boolean' ? [true, false] : observation.values;
+	return values.map((value) => ({
+		value,
+		probability: observation.frequencies[String(value)] ?? 0
+	}));
+}
+
+function normaliseOptions(options: AnswerOption[]): AnswerOption[] | null {
+	const total = options.reduce((sum, option) => sum + option.probability, 0);
+	if (!(total > 0) || !Number.isFinite(total)) return null;
+	return options.map((option) => ({ value: option.value, probability: option.probability / total }));
+}
+
+/**
+ * The answers look-ahead considers for an observation and how often each is given. An override
+ * for the observation replaces the rulebook's frequencies (values it leaves out count as 0); the
+ * result always sums to 1 so that a question whose answers change nothing gains exactly 0.
+ */
+export function listAnswerOptions(
+	observation: Observation,
+	overrides?: FrequencyOverrides
+): AnswerOption[] {
+	const override = overrides?.[observation.key];
+	if (override) {
+		const overridden = normaliseOptions(
+			listDefaultOptions(observation).map((option) => {
+				const frequency = override[String(option.value)];
+				return {
+					value: option.value,
+					probability: typeof frequency === 'number' && frequency > 0 ? frequency : 0
+				};
+			})
+		);
+		if (overridden) return overridden;
+	}
+	let options = defaultOptionsCache.get(observation);
+	if (!options) {
+		const defaults = listDefaultOptions(observation);
+		options =
+			normaliseOptions(defaults) ??
+			defaults.map((option) => ({ ...option, probability: 1 / defaults.length }));
+		defaultOptionsCache.set(observation, options);
+	}
+	return options;
+}
+
+// Observations are immutable once an edition is parsed, so their default options can be kept.
+const defaultOptionsCache = new WeakMap<Observation, AnswerOption[]>();
+
+export interface LookAheadState {
+	/** Answered observations (explicit and matched). Left unchanged when the call returns. */
+	facts: FactVector;
+	fired: FiredMask;
+	logOdds: Float64Array;
+}
+
+/**
+ * Expected entropy reduction of every observation that is neither answered nor excluded.
+ * Only the rules that mention the observation are re-evaluated (compiled predicates), and only
+ * their causes' log-odds move, so no engine run happens per hypothetical answer.
+ */
+export function planNextQuestions(
+	compiled: CompiledRulebook,
+	state: LookAheadState,
+	excluded: ReadonlySet<string>,
+	overrides?: FrequencyOverrides
+): NextQuestion[] {
+	const { facts, fired, logOdds } = state;
+	const causeCount = compiled.causes.length;
+	const entropy = Float64Array.from(logOdds, (value) => binaryEntropyBits(logistic(value)));
+	const delta = new Float64Array(causeCount);
+	const isTouched = new Uint8Array(causeCount);
+	const touched: number[] = [];
+	const questions: NextQuestion[] = [];
+
+	compiled.rulebook.observations.forEach((observation, observationIndex) => {
+		if (facts[observationIndex] !== undefined || excluded.has(observation.key)) return;
+		// Rules that can start firing on this answer: not firing yet (one more answer never stops
+		// a rule firing, since no leaf holds on an unanswered observation), and not waiting for
+		// some other unanswered observation.
+		const live: CompiledRule[] = [];
+		for (const ruleIndex of compiled.ruleIndicesByObservation.get(observation.key) ?? []) {
+			if (fired[ruleIndex] === 1) continue;
+			const rule = compiled.rules[ruleIndex];
+			let waits = false;
+			for (const required of rule.requiredFacts) {
+				if (required !== observationIndex && facts[required] === undefined) {
+					waits = true;
+					break;
+				}
+			}
+			if (!waits) live.push(rule);
+		}
+		let expectedGain = 0;
+		if (live.length > 0) {
+			for (const option of listAnswerOptions(observation, overrides)) {
+				facts[observationIndex] = option.value;
+				for (const rule of live) {
+					if (!rule.predicate(facts)) continue;
+					if (isTouched[rule.causeIndex] === 0) {
+						isTouched[rule.causeIndex] = 1;
+						touched.push(rule.causeIndex);
+					}
+					delta[rule.causeIndex] += rule.lnLr;
+				}
+				let reduction = 0;
+				for (const causeIndex of touched) {
+					if (delta[causeIndex] !== 0) {
+						const after = binaryEntropyBits(logistic(logOdds[causeIndex] + delta[causeIndex]));
+						reduction += entropy[causeIndex] - after;
+					}
+					delta[causeIndex] = 0;
+					isTouched[causeIndex] = 0;
+				}
+				touched.length = 0;
+				expectedGain += option.probability * reduction;
+			}
+			facts[observationIndex] = undefined;
+		}
+		questions.push(describeQuestion(observation, expectedGain));
+	});
+	const shownGains = new Map(questions.map((question) => [question, roundGainBits(question.expectedGain)]));
+	// Order by what the caller will see (4 decimals), so equal shown gains list by key.
+	return questions.sort(
+		(a, b) =>
+			(shownGains.get(b) as number) - (shownGains.get(a) as number) ||
+			(a.key < b.key ? -1 : a.key > b.key ? 1 : 0)
+	);
+}
+
+export function roundGainBits(gain: number): number {
+	const rounded = Math.round(gain * 1e4) / 1e4;
+	return rounded === 0 ? 0 : rounded;
+}
+
+function describeQuestion(observation: Observation, expectedGain: number): NextQuestion {
+	const question: NextQuestion = {
+		key: observation.key,
+		prompt: observation.prompt,
+		expectedGain,
+		kind: observation.kind,
+		group: observation.group,
+		cautions: observation.cautions
+	};
+	if (observation.help) question.help = observation.help;
+	if (observation.kind === 'enum') {
+		question.values = observation.values;
+		if (observation.valueLabels) question.valueLabels = observation.valueLabels;
+	}
+	if (observation.kind === 'number') {
+		question.unit = observation.unit;
+		question.min = observation.min;
+		question.max = observation.max;
+		question.bins = observation.bins;
+	}
+	return question;
+}

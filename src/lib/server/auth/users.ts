@@ -1,0 +1,192 @@
+import { and, asc, eq } from 'drizzle-orm';
+import { db } from '../db';
+import { shops, users, type Role, type User } from '../db/schema';
+import { auditInsert } from '../audit';
+import { AppError } from '../errors';
+import { getConfig } from '../config';
+import { baseEditionInsert } from '../editions';
+import { generateId } from './crypto';
+import { checkPasswordStrength, getDummyHash, hashPassword, verifyPassword } from './password';
+import {
+	clearLoginFailures,
+	loginKeys,
+	loginLockedForS,
+	recordLoginFailure
+} from './rate-limit';
+import { invalidateUserSessions } from './session';
+import { assignableRoles } from './roles';
+
+export const normaliseEmail = (email: string) => email.trim().toLowerCase();
+
+export async function findUserByEmail(email: string): Promise<User | undefined> {
+	const [user] = await db.select().from(users).where(eq(users.email, normaliseEmail(email)));
+	return user;
+}
+
+/** Creates a shop and its first user, an admin. */
+export async function createShop(input: {
+	shopName: string;
+	name: string;
+	email: string;
+	password: string;
+	isDemo?: boolean;
+}) {
+	const email = normaliseEmail(input.email);
+	const weak = checkPasswordStrength(input.password, email);
+	if (weak) throw new AppError('invalid_request', weak, { field: 'password' });
+	if (await findUserByEmail(email)) {
+		throw new AppError('conflict', 'That e-mail address already has an account.', {
+			field: 'email'
+		});
+	}
+	const shopId = generateId();
+	const userId = generateId();
+	const passwordHash = await hashPassword(input.password);
+	await db.batch([
+		db.insert(shops).values({ id: shopId, name: input.shopName.trim(), isDemo: !!input.isDemo }),
+		db.insert(users).values({
+			id: userId,
+			shopId,
+			email,
+			name: input.name.trim(),
+			role: 'admin',
+			passwordHash
+		}),
+		baseEditionInsert(shopId, userId),
+		auditInsert({ shopId, actorUserId: userId, action: 'shop.created', target: shopId }),
+		auditInsert({ shopId, actorUserId: userId, action: 'rulebook.published', target: 'edition 1' })
+	]);
+	return { shopId, userId };
+}
+
+/** Adds a user to a shop directly (seeding, accepted invites). */
+export function insertUserStatement(input: {
+	id: string;
+	shopId: string;
+	email: string;
+	name: string;
+	role: Role;
+	passwordHash: string;
+}) {
+	return db.insert(users).values({ ...input, email: normaliseEmail(input.email) });
+}
+
+export type SignInResult =
+	| { ok: true; user: User }
+	| { ok: false; reason: 'invalid' }
+	| { ok: false; reason: 'locked'; retryAfterS: number };
+
+/**
+ * One generic answer for a wrong e-mail, a wrong password or a deactivated account, and the same
+ * argon2 cost in each case, so the form tells an attacker nothing about which accounts exist.
+ */
+export async function signIn(emailInput: string, password: string, ip: string): Promise<SignInResult> {
+	const email = normaliseEmail(emailInput);
+	const keys = loginKeys(email, ip);
+	const lockedS = await loginLockedForS(keys);
+	if (lockedS > 0) return { ok: false, reason: 'locked', retryAfterS: lockedS };
+
+	const user = await findUserByEmail(email);
+	const valid = user
+		? await verifyPassword(user.passwordHash, password)
+		: (await verifyPassword(await getDummyHash(), password), false);
+	if (!user || !valid || !user.active) {
+		await recordLoginFailure(keys, getConfig().LOGIN_MAX_ATTEMPTS);
+		return { ok: false, reason: 'invalid' };
+	}
+	await clearLoginFailures(email);
+	return { ok: true, user };
+}
+
+export async function listUsers(shopId: string) {
+	return db
+		.select({
+			id: users.id,
+			email: users.email,
+			name: users.name,
+			role: users.role,
+			active: users.active,
+			createdAt: users.createdAt
+		})
+		.from(users)
+		.where(eq(users.shopId, shopId))
+		.orderBy(asc(users.name));
+}
+
+/** Another shop's user is "not found", never "forbidden": ids of other shops are not revealed. */
+async function getShopUser(shopId: string, userId: string): Promise<User> {
+	const [user] = await db
+		.select()
+		.from(users)
+		.where(and(eq(users.id, userId), eq(users.shopId, shopId)));
+	if (!user) throw new AppError('not_found', 'No such user in this shop.');
+	return user;
+}
+
+type Actor = { id: string; shopId: string; role: Role };
+
+async function assertNotLastAdmin(shopId: string, target: User) {
+	if (target.role !== 'admin' || !target.active) return;
+	const admins = await db
+		.select({ id: users.id })
+		.from(users)
+		.where(and(eq(users.shopId, shopId), eq(users.role, 'admin'), eq(users.active, true)));
+	if (admins.length <= 1) {
+		throw new AppError('conflict', 'A shop needs at least one active admin.');
+	}
+}
+
+/** Changing a role ends the user's sessions, so the new role applies at once. */
+export async function changeUserRole(actor: Actor, userId: string, role: Role, ip?: string) {
+	const target = await getShopUser(actor.shopId, userId);
+	if (!assignableRoles(actor.role).includes(role) || (target.role === 'admin' && actor.role !== 'admin')) {
+		throw new AppError('forbidden', 'Only an admin can give or take the admin role.');
+	}
+	if (target.role === role) return;
+	if (role !== 'admin') await assertNotLastAdmin(actor.shopId, target);
+	await db.batch([
+		db.update(users).set({ role }).where(eq(users.id, target.id)),
+		auditInsert({
+			shopId: actor.shopId,
+			actorUserId: actor.id,
+			action: 'user.role_changed',
+			target: target.id,
+			detail: { email: target.email, from: target.role, to: role },
+			ip
+		})
+	]);
+	await invalidateUserSessions(target.id);
+}
+
+export async function setUserActive(actor: Actor, userId: string, active: boolean, ip?: string) {
+	const target = await getShopUser(actor.shopId, userId);
+	if (target.id === actor.id) {
+		throw new AppError('conflict', 'You cannot deactivate your own account.');
+	}
+	if (target.role === 'admin' && actor.role !== 'admin') {
+		throw new AppError('forbidden', 'Only an admin can deactivate an admin.');
+	}
+	if (target.active === active) return;
+	if (!active) await assertNotLastAdmin(actor.shopId, target);
+	await db.batch([
+		db
+			.update(users)
+			.set({ active, deactivatedAt: active ? null : new Date() })
+			.where(eq(users.id, target.id)),
+		auditInsert({
+			shopId: actor.shopId,
+			actorUserId: actor.id,
+			action: active ? 'user.reactivated' : 'user.deactivated',
+			target: target.id,
+			detail: { email: target.email },
+			ip
+		})
+	]);
+	if (!active) await invalidateUserSessions(target.id);
+}
+
+export async function getShop(shopId: string) {
+	const [shop] = await db.select().from(shops).where(eq(shops.id, shopId));
+	if (!shop) throw new AppError('not_found', 'No such shop.');
+	return shop;
+}

@@ -1,0 +1,59 @@
+import { diagnoseRequestSchema, type DiagnoseRequest } from '../diagnosis/api-schema';
+import { validateObservations } from '../diagnosis';
+import { db } from './db';
+import { cases } from './db/schema';
+import { generateId } from './auth/crypto';
+import { getPublishedEdition } from './editions';
+import { AppError } from './errors';
+import { zodIssues } from './http';
+import type { ApiCaller } from './guard';
+
+/** Parses a diagnose request; every problem is reported with its path, nothing is written. */
+export function parseDiagnoseRequest(body: unknown): DiagnoseRequest {
+	const parsed = diagnoseRequestSchema.safeParse(body);
+	if (!parsed.success) {
+		throw new AppError('invalid_request', 'The request does not match the diagnose schema.', {
+			issues: zodIssues(parsed.error)
+		});
+	}
+	return parsed.data;
+}
+
+/**
+ * Ranks causes with the shop's published edition. Stateless unless `saveAsCase`, in which case
+ * the case is stored with the edition it was scored with, so it can be replayed exactly.
+ */
+export async function diagnoseForShop(caller: ApiCaller, request: DiagnoseRequest) {
+	const edition = await getPublishedEdition(caller.shopId);
+	const issues = validateObservations(edition.rulebook, request.observations, request.unknown);
+	if (issues.length) {
+		throw new AppError('invalid_request', 'Some observations are not understood.', { issues });
+	}
+	const diagnosis = await edition.diagnoser.diagnose({
+		observations: request.observations,
+		unknown: request.unknown,
+		complaint: request.complaint
+	});
+	let caseId: string | null = null;
+	if (request.saveAsCase) {
+		caseId = generateId();
+		await db.insert(cases).values({
+			id: caseId,
+			shopId: caller.shopId,
+			editionId: edition.id,
+			source: caller.apiKeyId ? 'api' : 'bay',
+			createdBy: caller.userId,
+			apiKeyId: caller.apiKeyId,
+			vehicle: request.vehicle ?? null,
+			complaint: request.complaint ?? null,
+			observations: request.observations,
+			unknown: request.unknown ?? [],
+			result: { causes: diagnosis.causes.map(({ key, probability }) => ({ key, probability })) }
+		});
+	}
+	return {
+		rulebook: { edition: edition.number, publishedAt: edition.publishedAt?.toISOString() ?? null },
+		...diagnosis,
+		caseId
+	};
+}

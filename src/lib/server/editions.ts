@@ -1,0 +1,106 @@
+import { and, desc, eq } from 'drizzle-orm';
+import { createDiagnoser, type Diagnoser } from '../diagnosis';
+import { loadRulebookFromDir } from '../diagnosis/load';
+import { parseRulebook, type Rulebook } from '../diagnosis/schema';
+import { db } from './db';
+import { rulebookEditions } from './db/schema';
+import { auditInsert } from './audit';
+import { getConfig } from './config';
+import { generateId } from './auth/crypto';
+import { AppError } from './errors';
+
+let baseRulebook: Rulebook | undefined;
+
+/** The shipped rulebook in rules/, validated once per process. */
+export function getBaseRulebook(): Rulebook {
+	baseRulebook ??= loadRulebookFromDir(getConfig().RULES_DIR);
+	return baseRulebook;
+}
+
+/** The statement that gives a new shop the base rulebook as its published edition 1. */
+export function baseEditionInsert(shopId: string, createdBy: string | null) {
+	return db.insert(rulebookEditions).values({
+		id: generateId(),
+		shopId,
+		number: 1,
+		status: 'published',
+		content: getBaseRulebook(),
+		notes: 'Base rulebook shipped with Causeway',
+		createdBy,
+		publishedAt: new Date()
+	});
+}
+
+export async function seedBaseEdition(shopId: string, createdBy: string | null) {
+	await db.batch([
+		baseEditionInsert(shopId, createdBy),
+		auditInsert({
+			shopId,
+			actorUserId: createdBy,
+			action: 'rulebook.published',
+			target: 'edition 1',
+			detail: { source: 'base rulebook' }
+		})
+	]);
+}
+
+export type PublishedEdition = {
+	id: string;
+	number: number;
+	publishedAt: Date | null;
+	diagnoser: Diagnoser;
+	rulebook: Rulebook;
+};
+
+/**
+ * Editions never change once published, so their compiled diagnoser is cached by id; which
+ * edition is published is read from the database on every call (no state that matters in memory).
+ */
+const diagnosers = new Map<string, { diagnoser: Diagnoser; rulebook: Rulebook }>();
+const MAX_CACHED_EDITIONS = 200;
+
+export async function getPublishedEdition(shopId: string): Promise<PublishedEdition> {
+	const [row] = await db
+		.select({
+			id: rulebookEditions.id,
+			number: rulebookEditions.number,
+			publishedAt: rulebookEditions.publishedAt
+		})
+		.from(rulebookEditions)
+		.where(and(eq(rulebookEditions.shopId, shopId), eq(rulebookEditions.status, 'published')))
+		.orderBy(desc(rulebookEditions.number))
+		.limit(1);
+	if (!row) throw new AppError('not_found', 'This shop has no published rulebook edition.');
+	let compiled = diagnosers.get(row.id);
+	if (!compiled) {
+		const [{ content }] = await db
+			.select({ content: rulebookEditions.content })
+			.from(rulebookEditions)
+			.where(eq(rulebookEditions.id, row.id));
+		const parsed = parseRulebook(content);
+		if (!parsed.ok) {
+			throw new Error(`Edition ${row.id} fails validation: ${JSON.stringify(parsed.issues)}`);
+		}
+		compiled = { rulebook: parsed.rulebook, diagnoser: createDiagnoser(parsed.rulebook) };
+		if (diagnosers.size >= MAX_CACHED_EDITIONS) {
+			diagnosers.delete(diagnosers.keys().next().value!);
+		}
+		diagnosers.set(row.id, compiled);
+	}
+	return { ...row, ...compiled };
+}
+
+export async function listEditions(shopId: string) {
+	return db
+		.select({
+			id: rulebookEditions.id,
+			number: rulebookEditions.number,
+			status: rulebookEditions.status,
+			notes: rulebookEditions.notes,
+			createdAt: rulebookEditions.createdAt,
+			publishedAt: rulebookEditions.publishedAt
+		})
+		.from(rulebookEditions)
+		.where(eq(rulebookEditions.shopId, shopId))
+		.orderBy(desc(rulebookEditions.number));
+}

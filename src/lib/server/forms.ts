@@ -1,0 +1,60 @@
+import { fail } from '@sveltejs/kit';
+import { z } from 'zod';
+import { AppError } from './errors';
+
+export type FieldErrors = Record<string, string>;
+
+/**
+ * Parses a form post with a zod schema. Only string fields are read (a file or a repeated field
+ * fails the schema like any other bad value), and the first message per field is kept.
+ */
+export function parseForm<S extends z.ZodType>(
+	schema: S,
+	formData: FormData
+): { ok: true; data: z.infer<S> } | { ok: false; errors: FieldErrors } {
+	const raw: Record<string, unknown> = {};
+	for (const [key, value] of formData) {
+		if (key in raw) raw[key] = [raw[key], value].flat();
+		else raw[key] = typeof value === 'string' ? value : null;
+	}
+	const result = schema.safeParse(raw);
+	if (result.success) return { ok: true, data: result.data };
+	const errors: FieldErrors = {};
+	for (const issue of result.error.issues) {
+		const field = String(issue.path[0] ?? 'form');
+		errors[field] ??= issue.message;
+	}
+	return { ok: false, errors };
+}
+
+/** The form's answer for a failed parse: 400 with field messages and the safe values back. */
+export function failForm(errors: FieldErrors, values: Record<string, unknown> = {}) {
+	return fail(400, { message: 'Please correct the marked fields.', errors, values });
+}
+
+/** An expected domain failure as a form answer; anything else is rethrown. */
+export function failFromError(err: unknown, values: Record<string, unknown> = {}) {
+	if (!(err instanceof AppError)) throw err;
+	const status = err.code === 'conflict' ? 409 : err.status >= 400 && err.status < 500 ? err.status : 400;
+	const errors: FieldErrors = err.options.field ? { [err.options.field]: err.message } : {};
+	return fail(status, { message: err.message, errors, values });
+}
+
+export const emailField = z
+	.string({ error: 'Enter an e-mail address.' })
+	.trim()
+	.toLowerCase()
+	.pipe(z.email({ error: 'Enter a valid e-mail address.' }))
+	.refine((v) => v.length <= 254, 'That e-mail address is too long.');
+
+export const passwordField = z
+	.string({ error: 'Enter a password.' })
+	.min(1, 'Enter a password.')
+	.max(256, 'Use at most 256 characters.');
+
+export const nameField = (label: string) =>
+	z
+		.string({ error: `Enter ${label}.` })
+		.trim()
+		.min(1, `Enter ${label}.`)
+		.max(120, `Keep ${label} under 120 characters.`);

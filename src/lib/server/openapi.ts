@@ -1,0 +1,82 @@
+import { z } from 'zod';
+import {
+	apiErrorSchema,
+	diagnoseRequestSchema,
+	diagnoseResponseSchema
+} from '../diagnosis/api-schema';
+
+const schema = (s: z.ZodType, io: 'input' | 'output') =>
+	z.toJSONSchema(s, { target: 'draft-2020-12', io, unrepresentable: 'any' });
+
+const errorResponse = (description: string) => ({
+	description,
+	content: { 'application/json': { schema: { $ref: '#/components/schemas/Error' } } }
+});
+
+let document: Record<string, unknown> | undefined;
+
+/**
+ * OpenAPI 3.1 for the v1 API, generated from the same zod schemas that validate requests, so the
+ * published contract cannot drift from the code.
+ */
+export function getOpenApiDocument(): Record<string, unknown> {
+	document ??= {
+		openapi: '3.1.0',
+		info: {
+			title: 'Causeway API',
+			version: '1.0.0',
+			description:
+				'Ranks the likely causes of engine overheating and coolant loss from observations, ' +
+				'with the reasons, the next most useful questions and the confirming tests to run.'
+		},
+		servers: [{ url: '/' }],
+		security: [{ apiKey: [] }, { session: [] }],
+		paths: {
+			'/api/v1/diagnose': {
+				post: {
+					operationId: 'diagnose',
+					summary: 'Rank causes for a set of observations',
+					requestBody: {
+						required: true,
+						content: {
+							'application/json': { schema: { $ref: '#/components/schemas/DiagnoseRequest' } }
+						}
+					},
+					responses: {
+						'200': {
+							description: 'Ranked causes, next questions and the confirming test plan',
+							content: {
+								'application/json': { schema: { $ref: '#/components/schemas/DiagnoseResponse' } }
+							}
+						},
+						'400': errorResponse('Not JSON, fails the schema, unknown observation, bad value or VIN'),
+						'401': errorResponse('No, unknown or revoked key, and no session'),
+						'403': errorResponse('Signed in, but the role may not do this'),
+						'413': errorResponse('Body over 64 KiB'),
+						'429': errorResponse('Over the per-key or per-IP limit; see Retry-After')
+					}
+				}
+			},
+			'/api/health': {
+				get: {
+					operationId: 'health',
+					summary: 'Liveness with the database reachable',
+					security: [],
+					responses: { '200': { description: '{ "ok": true }' } }
+				}
+			}
+		},
+		components: {
+			securitySchemes: {
+				apiKey: { type: 'http', scheme: 'bearer', description: 'A shop API key (cw_…)' },
+				session: { type: 'apiKey', in: 'cookie', name: 'causeway_session' }
+			},
+			schemas: {
+				DiagnoseRequest: schema(diagnoseRequestSchema, 'input'),
+				DiagnoseResponse: schema(diagnoseResponseSchema, 'output'),
+				Error: schema(apiErrorSchema, 'output')
+			}
+		}
+	};
+	return document;
+}

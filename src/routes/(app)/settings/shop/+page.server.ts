@@ -1,0 +1,23 @@
+import { getShop } from '$lib/server/auth/users';
+import { failForm, parseForm } from '$lib/server/forms';
+import { requirePermission } from '$lib/server/guard';
+import { clientIp } from '$lib/server/http';
+import { coolantIntervals, shopSettingsSchema, updateShopSettings } from '$lib/server/shop-settings';
+import type { Action, Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async (event) => {
+	const user = requirePermission(event, 'shop:settings');
+	const shop = await getShop(user.shopId);
+	return { name: shop.name, intervals: coolantIntervals(shop.settings) };
+};
+
+const saveAction: Action = async (event) => {
+	const user = requirePermission(event, 'shop:settings');
+	const formData = await event.request.formData();
+	const parsed = parseForm(shopSettingsSchema, formData);
+	if (!parsed.ok) return failForm(parsed.errors, Object.fromEntries(formData));
+	await updateShopSettings(user, parsed.data, clientIp(event));
+	return { ok: true, notice: 'Shop settings saved.' };
+};
+
+export const actions = { save: saveAction } satisfies Actions;

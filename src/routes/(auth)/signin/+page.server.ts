@@ -1,0 +1,40 @@
+import { fail, redirect } from '@sveltejs/kit';
+import { z } from 'zod';
+import { signIn } from '$lib/server/auth/users';
+import { createUserSession } from '$lib/server/auth/session';
+import { emailField, failForm, parseForm, passwordField } from '$lib/server/forms';
+import { clientIp } from '$lib/server/http';
+import type { Action, Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ locals }) => {
+	if (locals.user) redirect(303, '/');
+	return {};
+};
+
+const signInSchema = z.object({ email: emailField, password: passwordField, next: z.string().optional() });
+
+/** Only same-site paths: never send a person on to another site after signing in. */
+const safeNext = (next: string | undefined) =>
+	next && next.startsWith('/') && !next.startsWith('//') && !next.startsWith('/\\') ? next : '/';
+
+const signInAction: Action = async (event) => {
+	const parsed = parseForm(signInSchema, await event.request.formData());
+	if (!parsed.ok) return failForm(parsed.errors);
+	const { email, password, next } = parsed.data;
+	const result = await signIn(email, password, clientIp(event));
+	if (!result.ok) {
+		if (result.reason === 'locked') {
+			event.setHeaders({ 'retry-after': String(result.retryAfterS) });
+			return fail(429, {
+				message: `Too many failed sign-ins. Try again in ${Math.ceil(result.retryAfterS / 60)} minute(s).`,
+				values: { email }
+			});
+		}
+		return fail(400, { message: 'That e-mail and password do not match an active account.', values: { email } });
+	}
+	const { cookie } = await createUserSession(result.user.id);
+	event.cookies.set(cookie.name, cookie.value, { ...cookie.attributes, path: '/' });
+	redirect(303, safeNext(next));
+};
+
+export const actions = { default: signInAction } satisfies Actions;

@@ -1,0 +1,49 @@
+import { redirect } from '@sveltejs/kit';
+import { z } from 'zod';
+import { createShop } from '$lib/server/auth/users';
+import { createUserSession } from '$lib/server/auth/session';
+import {
+	emailField,
+	failForm,
+	failFromError,
+	nameField,
+	parseForm,
+	passwordField
+} from '$lib/server/forms';
+import { hitRateLimit } from '$lib/server/auth/rate-limit';
+import { clientIp } from '$lib/server/http';
+import type { Action, Actions, PageServerLoad } from './$types';
+import { fail } from '@sveltejs/kit';
+
+export const load: PageServerLoad = async ({ locals }) => {
+	if (locals.user) redirect(303, '/');
+	return {};
+};
+
+const signUpSchema = z.object({
+	shopName: nameField('the shop name'),
+	name: nameField('your name'),
+	email: emailField,
+	password: passwordField
+});
+
+const createShopAction: Action = async (event) => {
+	const parsed = parseForm(signUpSchema, await event.request.formData());
+	if (!parsed.ok) return failForm(parsed.errors);
+	const { password, ...values } = parsed.data;
+	const limit = await hitRateLimit(`signup:ip:${clientIp(event)}`, 10, 3600);
+	if (!limit.allowed) {
+		return fail(429, { message: 'Too many new shops from this address. Try again later.', values });
+	}
+	let userId: string;
+	try {
+		({ userId } = await createShop({ ...values, password }));
+	} catch (err) {
+		return failFromError(err, values);
+	}
+	const { cookie } = await createUserSession(userId);
+	event.cookies.set(cookie.name, cookie.value, { ...cookie.attributes, path: '/' });
+	redirect(303, '/');
+};
+
+export const actions = { default: createShopAction } satisfies Actions;

@@ -1,0 +1,6 @@
+import { json } from '@sveltejs/kit';
+import { getOpenApiDocument } from '$lib/server/openapi';
+import type { RequestHandler } from './$types';
+
+export const GET: RequestHandler = () =>
+	json(getOpenApiDocument(), { headers: { 'cache-control': 'public, max-age=300' } });

@@ -1,0 +1,17 @@
+import adapter from '@sveltejs/adapter-node';
+import { vitePreprocess } from '@sveltejs/vite-plugin-svelte';
+
+/** @type {import('@sveltejs/kit').Config} */
+const config = {
+	preprocess: vitePreprocess(),
+	compilerOptions: {
+		// Runes per file: library components written in the old syntax keep working.
+		runes: ({ filename }) =>
+			filename.split(/[/\\]/).includes('node_modules') ? undefined : true
+	},
+	kit: {
+		adapter: adapter({ out: 'build', precompress: false })
+	}
+};
+
+export default config;

@@ -1,0 +1,250 @@
+import { describe, expect, it } from 'vitest';
+import { waitForLink } from '../support/smtp-catcher';
+import { createShop, mailDir, newClient, openServerDb, uniqueEmail } from './helpers';
+
+describe('creating a shop', () => {
+	it('makes the first user an admin who lands signed in on the home page', async () => {
+		const { client } = await createShop('Ferry Road Repairs');
+		const home = await client.get('/');
+		expect(home.status).toBe(200);
+		const html = await home.text();
+		expect(html).toContain('Ferry Road Repairs');
+		expect(html).toContain('Shop admin');
+	});
+
+	it('gives the new shop the base rulebook as published edition 1', async () => {
+		const { client } = await createShop('Quarry Lane Service');
+		const res = await client.json('/api/v1/diagnose', { observations: {} });
+		expect(res.status).toBe(200);
+		expect(res.body.rulebook.edition).toBe(1);
+	});
+
+	it('refuses a duplicate e-mail, a common password and a short one, and changes nothing', async () => {
+		const { email } = await createShop();
+		const db = openServerDb();
+		const before = (await db.execute('SELECT count(*) AS n FROM shops')).rows[0].n;
+		const client = newClient();
+		const dup = await client.action('/signup', { shopName: 'X', name: 'Y', email, password: 'another-long-pass-1' });
+		expect(dup.status).toBe(409);
+		expect(dup.data?.message).toBe('That e-mail address already has an account.');
+		const common = await client.action('/signup', {
+			shopName: 'X',
+			name: 'Y',
+			email: uniqueEmail('x'),
+			password: 'password1'
+		});
+		expect(common.status).toBe(400);
+		expect(common.data?.message).toMatch(/most common/);
+		const short = await client.action('/signup', { shopName: 'X', name: 'Y', email: uniqueEmail('x'), password: 'a1b2c3' });
+		expect(short.status).toBe(400);
+		expect(short.data?.message).toMatch(/at least 8/);
+		const after = (await db.execute('SELECT count(*) AS n FROM shops')).rows[0].n;
+		expect(after).toBe(before);
+		db.close();
+	});
+
+	it('answers a malformed form post with field messages, not a crash', async () => {
+		const client = newClient();
+		const res = await client.action('/signup', { shopName: '', email: 'not-an-address' });
+		expect(res.status).toBe(400);
+		const errors = res.data?.errors as Record<string, string>;
+		expect(errors.shopName).toBe('Enter the shop name.');
+		expect(errors.email).toBe('Enter a valid e-mail address.');
+		expect(errors.password).toBe('Enter a password.');
+	});
+});
+
+describe('signing in and out', () => {
+	it('gives one generic message for a wrong password and for an unknown account', async () => {
+		const { email } = await createShop();
+		const client = newClient();
+		const wrong = await client.action('/signin', { email, password: 'not-the-password' });
+		const unknown = await client.action('/signin', { email: uniqueEmail('nobody'), password: 'whatever-pass' });
+		expect(wrong.status).toBe(400);
+		expect(unknown.status).toBe(400);
+		expect(wrong.data?.message).toBe(unknown.data?.message);
+		expect(wrong.data).not.toHaveProperty('values.password');
+	});
+
+	it('locks an account gradually after repeated failures, then lets the right password in later', async () => {
+		const { email, password } = await createShop();
+		const client = newClient();
+		const statuses: number[] = [];
+		for (let i = 0; i < 6; i++) {
+			statuses.push((await client.action('/signin', { email, password: 'wrong-guess-' + i })).status!);
+		}
+		expect(statuses.slice(0, 5)).toEqual([400, 400, 400, 400, 400]);
+		expect(statuses[5]).toBe(429);
+		const locked = await client.action('/signin', { email, password });
+		expect(locked.status).toBe(429);
+		// The lock is not permanent: once it has passed, the right password works again.
+		const db = openServerDb();
+		await db.execute({ sql: "UPDATE rate_limits SET locked_until = 0 WHERE key = ?", args: [`login:account:${email}`] });
+		db.close();
+		const ok = await client.action('/signin', { email, password });
+		expect(ok.type).toBe('redirect');
+	});
+
+	it('sets an httpOnly, SameSite session cookie whose token is not stored in the database', async () => {
+		const { email, password } = await createShop();
+		const res = await fetch(`${newClient().baseUrl}/signin`, {
+			method: 'POST',
+			redirect: 'manual',
+			headers: { origin: newClient().baseUrl, 'content-type': 'application/x-www-form-urlencoded' },
+			body: new URLSearchParams({ email, password }).toString()
+		});
+		expect(res.status).toBe(303);
+		const cookie = res.headers.getSetCookie().find((c) => c.startsWith('causeway_session='))!;
+		expect(cookie).toMatch(/HttpOnly/i);
+		expect(cookie).toMatch(/SameSite=Lax/i);
+		expect(cookie).toMatch(/Path=\//);
+		const token = cookie.split(';')[0].split('=')[1];
+		expect(token.length).toBeGreaterThanOrEqual(26); // 160 random bits in base32
+		const db = openServerDb();
+		const found = await db.execute({ sql: 'SELECT count(*) AS n FROM sessions WHERE id = ?', args: [token] });
+		expect(found.rows[0].n).toBe(0);
+		db.close();
+	});
+
+	it('ends the session at sign-out', async () => {
+		const { client } = await createShop();
+		expect((await client.get('/')).status).toBe(200);
+		const cookieBefore = client.cookies.get('causeway_session')!;
+		const out = await client.action('/signout', {});
+		expect(out.type).toBe('redirect');
+		const replay = newClient();
+		replay.cookies.set('causeway_session', cookieBefore);
+		const res = await replay.get('/');
+		expect(res.status).toBe(303);
+		expect(res.headers.get('location')).toMatch(/^\/signin/);
+	});
+
+	it('refuses a cross-site form post', async () => {
+		const { email, password } = await createShop();
+		const res = await fetch(`${newClient().baseUrl}/signin`, {
+			method: 'POST',
+			redirect: 'manual',
+			headers: { origin: 'https://elsewhere.example', 'content-type': 'application/x-www-form-urlencoded' },
+			body: new URLSearchParams({ email, password }).toString()
+		});
+		expect(res.status).toBe(403);
+	});
+});
+
+describe('inviting a user', () => {
+	it('sends a one-time link by e-mail that creates the account with the invited role', async () => {
+		const { client } = await createShop('Marsh End Motors');
+		const email = uniqueEmail('newtech');
+		const invited = await client.action('/settings/users?/invite', { email, role: 'technician' });
+		expect(invited.type).toBe('success');
+		const link = await waitForLink(mailDir(), email, '/invite/');
+		const path = new URL(link).pathname;
+
+		const newcomer = newClient();
+		const page = await newcomer.get(path);
+		expect(page.status).toBe(200);
+		expect(await page.text()).toContain('Marsh End Motors');
+		const accepted = await newcomer.action(path, { name: 'New Tech', password: 'coolant-level-check-3' });
+		expect(accepted.type).toBe('redirect');
+		const home = await newcomer.get('/');
+		expect(await home.text()).toContain('Technician');
+
+		const again = await newClient().get(path);
+		expect(again.status).toBe(404);
+		const reuse = await newClient().action(path, { name: 'Someone', password: 'another-good-pass-4' });
+		expect(reuse.type).toBe('error');
+		expect(reuse.status).toBe(404);
+	});
+
+	it('refuses an expired link', async () => {
+		const { client } = await createShop();
+		const email = uniqueEmail('late');
+		await client.action('/settings/users?/invite', { email, role: 'lead' });
+		const link = await waitForLink(mailDir(), email, '/invite/');
+		const db = openServerDb();
+		await db.execute({ sql: 'UPDATE invites SET expires_at = 1 WHERE email = ?', args: [email] });
+		db.close();
+		const res = await newClient().get(new URL(link).pathname);
+		expect(res.status).toBe(404);
+		expect(await res.text()).toContain('expired or was already used');
+	});
+
+	it('refuses to invite an address that already has an account', async () => {
+		const { client, email } = await createShop();
+		const res = await client.action('/settings/users?/invite', { email, role: 'technician' });
+		expect(res.status).toBe(409);
+	});
+});
+
+describe('password reset', () => {
+	it('mails a one-time link; the new password works and old sessions end', async () => {
+		const { client, email } = await createShop();
+		const anon = newClient();
+		const asked = await anon.action('/reset', { email });
+		expect(asked.type).toBe('success');
+		const link = await waitForLink(mailDir(), email, '/reset/');
+		const path = new URL(link).pathname;
+		const weak = await anon.action(path, { password: 'qwerty123' });
+		expect(weak.status).toBe(400);
+		const done = await anon.action(path, { password: 'thermostat-housing-77' });
+		expect(done.type).toBe('redirect');
+		expect((await client.get('/')).status).toBe(303); // the old session is gone
+		const fresh = newClient();
+		await fresh.signIn(email, 'thermostat-housing-77');
+		expect((await fresh.get('/')).status).toBe(200);
+		expect((await newClient().get(path)).status).toBe(404);
+	});
+
+	it('answers the same for an unknown address and sends nothing', async () => {
+		const email = uniqueEmail('ghost');
+		const res = await newClient().action('/reset', { email });
+		expect(res.type).toBe('success');
+		expect(res.data?.sent).toBe(true);
+	});
+});
+
+describe('managing users', () => {
+	it('ends the sessions of a user whose role changes, and of one who is deactivated', async () => {
+		const { client } = await createShop();
+		const email = uniqueEmail('mover');
+		await client.action('/settings/users?/invite', { email, role: 'technician' });
+		const path = new URL(await waitForLink(mailDir(), email, '/invite/')).pathname;
+		const member = newClient();
+		await member.action(path, { name: 'Moving Person', password: 'hose-clamp-spanner-5' });
+		expect((await member.get('/rulebook')).status).toBe(403);
+
+		const db = openServerDb();
+		const { rows } = await db.execute({ sql: 'SELECT id FROM users WHERE email = ?', args: [email] });
+		const userId = String(rows[0].id);
+		const changed = await client.action('/settings/users?/changeRole', { userId, role: 'lead' });
+		expect(changed.type).toBe('success');
+		expect((await member.get('/')).status).toBe(303);
+		await member.signIn(email, 'hose-clamp-spanner-5');
+		expect((await member.get('/rulebook')).status).toBe(200);
+
+		const off = await client.action('/settings/users?/setActive', { userId, active: 'false' });
+		expect(off.type).toBe('success');
+		expect((await member.get('/')).status).toBe(303);
+		const again = await newClient().action('/signin', { email, password: 'hose-clamp-spanner-5' });
+		expect(again.status).toBe(400);
+		const audit = await db.execute({
+			sql: "SELECT action FROM audit_log WHERE target = ? ORDER BY id",
+			args: [userId]
+		});
+		expect(audit.rows.map((r) => r.action)).toEqual(['user.joined', 'user.role_changed', 'user.deactivated']);
+		db.close();
+	});
+
+	it('will not let the last admin demote or deactivate themselves away', async () => {
+		const { client } = await createShop();
+		const db = openServerDb();
+		const me = await client.get('/settings/users');
+		expect(me.status).toBe(200);
+		const { rows } = await db.execute(
+			"SELECT u.id FROM users u JOIN audit_log a ON a.actor_user_id = u.id WHERE a.action = 'shop.created' ORDER BY a.id DESC LIMIT 1"
+		);
+		const res = await client.action('/settings/users?/setActive', { userId: String(rows[0].id), active: 'false' });
+		expect(res.status).toBe(409);
+		db.close();
+	});
+});

@@ -1,0 +1,188 @@
+import { Engine } from 'json-rules-engine';
+import { describe, expect, it } from 'vitest';
+import { createDiagnoser } from '../../../src/lib/diagnosis';
+import type { ObservationValue, TopLevelCondition } from '../../../src/lib/diagnosis/schema';
+import {
+	createRng,
+	makeCoolingRulebook,
+	makeRandomFacts,
+	makeRandomRulebook,
+	makeRule,
+	makeRulebook
+} from './factories';
+
+describe('compiled predicates', () => {
+	it('fire exactly the rules json-rules-engine fires on 2,500 random fact sets', async () => {
+		let compared = 0;
+		let firedTotal = 0;
+		let possibleTotal = 0;
+		for (const seed of [11, 12, 13, 14, 15]) {
+			const diagnoser = createDiagnoser(makeRandomRulebook(seed));
+			const rng = createRng(seed * 7919);
+			for (let run = 0; run < 500; run++) {
+				// From nearly empty to nearly complete answers, with nulls among the unanswered.
+				const facts = makeRandomFacts(diagnoser.rulebook, rng, [0.1, 0.4, 0.7, 0.95][run % 4]);
+				const byEngine = await diagnoser.evaluateWithEngine(facts);
+				expect(diagnoser.evaluateCompiled(facts), JSON.stringify(facts)).toEqual(byEngine);
+				compared++;
+				firedTotal += byEngine.length;
+				possibleTotal += diagnoser.rulebook.rules.length;
+			}
+		}
+		expect(compared).toBeGreaterThanOrEqual(2000);
+		// The comparison means something only if rules both fire and stay quiet often.
+		expect(firedTotal / possibleTotal).toBeGreaterThan(0.1);
+		expect(firedTotal / possibleTotal).toBeLessThan(0.9);
+	});
+});
+
+describe('an unanswered observation', () => {
+	const negativeRules: [string, TopLevelCondition][] = [
+		['not-equal', { all: [{ fact: 'temp_gauge', operator: 'notEqual', value: 'normal' }] }],
+		['not-in', { any: [{ fact: 'temp_gauge', operator: 'notIn', value: ['normal', 'high_at_idle'] }] }],
+		[
+			'nested-negatives',
+			{
+				any: [
+					{ all: [{ fact: 'fan_runs_when_hot', operator: 'notEqual', value: true }] },
+					{
+						all: [
+							{ any: [{ fact: 'temp_gauge', operator: 'notIn', value: ['normal'] }] },
+							{ fact: 'loss_l_per_week', operator: 'notEqual', value: 0 }
+						]
+					}
+				]
+			}
+		],
+		['boolean-not-in', { all: [{ fact: 'fan_runs_when_hot', operator: 'notIn', value: [true] }] }],
+		['number-below', { all: [{ fact: 'loss_l_per_week', operator: 'lessThan', value: 5 }] }]
+	];
+
+	function makeNegativeRulebook() {
+		return makeRulebook({
+			rules: [
+				...makeRulebook().rules,
+				...negativeRules.map(([key, conditions]) =>
+					makeRule({ key: `only-${key}`, cause: 'thermostat_stuck_closed', lr: 2, conditions })
+				)
+			]
+		});
+	}
+
+	it('never satisfies notEqual or notIn, alone or nested in any/all', async () => {
+		const diagnoser = createDiagnoser(makeNegativeRulebook());
+		for (const facts of [
+			{},
+			{ temp_gauge: null, fan_runs_when_hot: null, loss_l_per_week: null },
+			{ fan_circuit_test: 'ok' as ObservationValue }
+		]) {
+			const engineFired = await diagnoser.evaluateWithEngine(facts);
+			const compiledFired = diagnoser.evaluateCompiled(facts);
+			for (const [key] of negativeRules) {
+				expect(engineFired).not.toContain(`only-${key}`);
+				expect(compiledFired).not.toContain(`only-${key}`);
+			}
+		}
+	});
+
+	it('lets the same negative conditions fire once the observation is answered', async () => {
+		const diagnoser = createDiagnoser(makeNegativeRulebook());
+		const facts = { temp_gauge: 'high_at_speed', fan_runs_when_hot: false, loss_l_per_week: 2 };
+		const fired = await diagnoser.evaluateWithEngine(facts);
+		for (const [key] of negativeRules) expect(fired).toContain(`only-${key}`);
+		expect(diagnoser.evaluateCompiled(facts)).toEqual(fired);
+	});
+
+	it('would satisfy notEqual in a plain json-rules-engine, which is why the engine is guarded', async () => {
+		const plain = new Engine(
+			[
+				{
+					name: 'plain',
+					conditions: { all: [{ fact: 'temp_gauge', operator: 'notEqual', value: 'normal' }] },
+					event: { type: 'plain' }
+				}
+			],
+			{ allowUndefinedFacts: true }
+		);
+		const { events } = await plain.run({});
+		expect(events.map((event) => event.type)).toEqual(['plain']);
+	});
+
+	it('counts as no evidence when it is listed as unknown or answered null', async () => {
+		const diagnoser = createDiagnoser(makeNegativeRulebook());
+		const empty = await diagnoser.diagnose({ observations: {} });
+		const withNulls = await diagnoser.diagnose({
+			observations: { temp_gauge: null, fan_runs_when_hot: null },
+			unknown: ['loss_l_per_week']
+		});
+		expect(withNulls.causes).toEqual(empty.causes);
+	});
+});
+
+describe('concurrent evaluations', () => {
+	it('give the same diagnoses as the same 200 requests run one after another', async () => {
+		const diagnoser = createDiagnoser(makeCoolingRulebook());
+		const rng = createRng(99);
+		const inputs = Array.from({ length: 200 }, () => ({
+			observations: makeRandomFacts(diagnoser.rulebook, rng, 0.4)
+		}));
+		const serial = [];
+		for (const input of inputs) serial.push(await diagnoser.diagnose(input));
+		const concurrent = await Promise.all(inputs.map((input) => diagnoser.diagnose(input)));
+		expect(concurrent).toEqual(serial);
+		// The inputs differ enough that equal results are not a coincidence of empty evidence.
+		expect(new Set(serial.map((result) => result.causes[0].key)).size).toBeGreaterThan(2);
+	});
+
+	it('do not skip rules when one run starts while another is finishing', async () => {
+		const diagnoser = createDiagnoser(makeCoolingRulebook());
+		const facts = { fan_runs_when_hot: false, temp_gauge: 'high_at_idle', sweet_smell: 'cabin' };
+		const expected = await diagnoser.evaluateWithEngine(facts);
+		expect(expected.length).toBeGreaterThan(2);
+		// Start a second run after every possible number of microtask turns of the first one.
+		for (let delay = 0; delay < 80; delay++) {
+			const first = diagnoser.evaluateWithEngine(facts);
+			const second = (async () => {
+				for (let turn = 0; turn < delay; turn++) await null;
+				return diagnoser.evaluateWithEngine(facts);
+			})();
+			expect(await Promise.all([first, second]), `delay ${delay}`).toEqual([expected, expected]);
+		}
+	});
+
+	it('would skip rules in one shared plain Engine under the same schedule (the fault guarded against)', async () => {
+		const rules = ['a', 'b', 'c', 'd', 'e'].map((name) => ({
+			name,
+			conditions: { all: [{ fact: 'x', operator: 'equal', value: 1 }] },
+			event: { type: name }
+		}));
+		const plain = new Engine(rules, { allowUndefinedFacts: true });
+		let shortRuns = 0;
+		for (let delay = 0; delay < 80; delay++) {
+			const first = plain.run({ x: 1 });
+			const second = (async () => {
+				for (let turn = 0; turn < delay; turn++) await null;
+				return plain.run({ x: 1 });
+			})();
+			for (const result of await Promise.all([first, second])) {
+				if (result.events.length !== rules.length) shortRuns++;
+			}
+		}
+		expect(shortRuns).toBeGreaterThan(0);
+	});
+});
+
+describe('evaluators', () => {
+	it('give identical diagnoses through the engine and through compiled predicates', async () => {
+		const rulebook = makeRandomRulebook(21);
+		const diagnoser = createDiagnoser(rulebook);
+		const rng = createRng(2024);
+		for (let run = 0; run < 100; run++) {
+			const input = { observations: makeRandomFacts(rulebook, rng, 0.5) };
+			expect(await diagnoser.diagnose(input, { evaluator: 'compiled' })).toEqual(
+				await diagnoser.diagnose(input, { evaluator: 'engine' })
+			);
+		}
+	});
+
+});
