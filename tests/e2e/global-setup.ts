@@ -15,7 +15,8 @@ export default async function globalSetup() {
 		env: {
 			SMTP_URL: `smtp://127.0.0.1:${smtp.port}`,
 			CAUSEWAY_SEED_DEMO: '1',
-			DEMO_PASSWORD: E2E_DEMO_PASSWORD
+			DEMO_PASSWORD: E2E_DEMO_PASSWORD,
+			SIGNUP_LIMIT_PER_HOUR: '1000'
 		}
 	});
 	process.env.E2E_MAIL_DIR = mailDir;

@@ -90,7 +90,11 @@ describe('signing in and out', () => {
 		const res = await fetch(`${newClient().baseUrl}/signin`, {
 			method: 'POST',
 			redirect: 'manual',
-			headers: { origin: newClient().baseUrl, 'content-type': 'application/x-www-form-urlencoded' },
+			headers: {
+				origin: newClient().baseUrl,
+				accept: 'text/html',
+				'content-type': 'application/x-www-form-urlencoded'
+			},
 			body: new URLSearchParams({ email, password }).toString()
 		});
 		expect(res.status).toBe(303);
@@ -152,8 +156,9 @@ describe('inviting a user', () => {
 		const again = await newClient().get(path);
 		expect(again.status).toBe(404);
 		const reuse = await newClient().action(path, { name: 'Someone', password: 'another-good-pass-4' });
-		expect(reuse.type).toBe('error');
+		expect(reuse.type).toBe('failure');
 		expect(reuse.status).toBe(404);
+		expect(reuse.data?.message).toBe('This invitation link has expired or was already used.');
 	});
 
 	it('refuses an expired link', async () => {

@@ -17,7 +17,8 @@ export default async function setup(project: TestProject) {
 			CAUSEWAY_SEED_DEMO: '1',
 			DEMO_PASSWORD,
 			DEMO_API_KEY,
-			LOGIN_MAX_ATTEMPTS: '5'
+			LOGIN_MAX_ATTEMPTS: '5',
+			SIGNUP_LIMIT_PER_HOUR: '1000'
 		}
 	});
 	project.provide('baseUrl', server.baseUrl);

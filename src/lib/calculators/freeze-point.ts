@@ -41,7 +41,8 @@ const CRC =
 	'CRC Handbook of Chemistry and Physics, 102nd ed. (2021), Concentrative Properties of Aqueous Solutions: ethylene glycol';
 const TOOLBOX = 'Engineering ToolBox, Ethylene Glycol Heat-Transfer Fluid';
 const ARMY_TM = 'US Army TM 5-3895-382-24';
-const OPERATOR_MANUAL = 'an equipment operator’s manual (OMSU31337), coolant section';
+// Cited by document number only: the product names no makers or brands.
+const OPERATOR_MANUAL = 'an equipment operator’s manual, OMSU31337, coolant section';
 const LANGE = "Lange's Handbook of Chemistry, Table 5.13";
 
 function makePoints(

@@ -38,7 +38,8 @@ export const configSchema = z.object({
 		.optional(),
 	API_RATE_LIMIT_PER_MINUTE: positiveInt(600),
 	API_IP_RATE_LIMIT_PER_MINUTE: positiveInt(1200),
-	LOGIN_MAX_ATTEMPTS: positiveInt(5)
+	LOGIN_MAX_ATTEMPTS: positiveInt(5),
+	SIGNUP_LIMIT_PER_HOUR: positiveInt(10)
 });
 
 export type Config = z.infer<typeof configSchema>;

@@ -79,7 +79,8 @@ describe('ethylene glycol by mass: CRC Handbook of Chemistry and Physics, 102nd 
 describe('commercial ethylene glycol antifreeze by volume', () => {
 	it('gives the service publications’ points to the printed 1 °C', () => {
 		// US Army TM 5-3895-382-24: 30 % → −15 °C, 50 % → −37 °C.
-		// An equipment operator's manual (OMSU31337), coolant section: 40 % → −24 °C, 50 % → −37 °C, 60 % → −52 °C.
+		// An equipment operator's manual, OMSU31337, coolant section:
+		// 40 % → −24 °C, 50 % → −37 °C, 60 % → −52 °C.
 		const published: [number, number][] = [
 			[30, -15],
 			[40, -24],

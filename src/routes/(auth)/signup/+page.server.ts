@@ -1,4 +1,4 @@
-import { redirect } from '@sveltejs/kit';
+import { fail, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
 import { createShop } from '$lib/server/auth/users';
 import { createUserSession } from '$lib/server/auth/session';
@@ -12,8 +12,8 @@ import {
 } from '$lib/server/forms';
 import { hitRateLimit } from '$lib/server/auth/rate-limit';
 import { clientIp } from '$lib/server/http';
+import { getConfig } from '$lib/server/config';
 import type { Action, Actions, PageServerLoad } from './$types';
-import { fail } from '@sveltejs/kit';
 
 export const load: PageServerLoad = async ({ locals }) => {
 	if (locals.user) redirect(303, '/');
@@ -31,7 +31,11 @@ const createShopAction: Action = async (event) => {
 	const parsed = parseForm(signUpSchema, await event.request.formData());
 	if (!parsed.ok) return failForm(parsed.errors);
 	const { password, ...values } = parsed.data;
-	const limit = await hitRateLimit(`signup:ip:${clientIp(event)}`, 10, 3600);
+	const limit = await hitRateLimit(
+		`signup:ip:${clientIp(event)}`,
+		getConfig().SIGNUP_LIMIT_PER_HOUR,
+		3600
+	);
 	if (!limit.allowed) {
 		return fail(429, { message: 'Too many new shops from this address. Try again later.', values });
 	}
