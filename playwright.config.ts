@@ -31,7 +31,7 @@ export default defineConfig({
 		}
 	},
 	projects: [
-		{ name: 'desktop', use: { ...devices['Desktop Chrome'] } },
+		{ name: 'desktop', use: { ...devices['Desktop Chrome'] }, testIgnore: /tablet\.spec\.ts/ },
 		{
 			name: 'tablet',
 			use: { viewport: { width: 820, height: 1180 }, hasTouch: true, isMobile: false },

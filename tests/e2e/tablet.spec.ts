@@ -5,7 +5,8 @@ test('on a tablet a technician answers by touch and the ranking updates beside t
 	await page.getByLabel('E-mail').fill('tech@saltmarsh.example');
 	await page.getByLabel('Password').fill(process.env.E2E_DEMO_PASSWORD!);
 	await page.getByRole('button', { name: 'Sign in' }).click();
-	await page.goto('/rank');
+	await expect(page.getByRole('heading', { level: 1 })).toContainText('Good to see you');
+	await page.getByRole('link', { name: 'Rank causes' }).first().tap();
 	const question = page.getByText('Next question').locator('..');
 	await expect(question.getByRole('heading')).toBeVisible();
 	const first = question.getByRole('button').first();

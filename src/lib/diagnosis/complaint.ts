@@ -10,12 +10,15 @@ export interface ComplaintMatch {
 	score: number;
 }
 
-/** A phrase word may be a loose match (typo, other ending); a match below this counts as none. */
-const MIN_WORD_SIMILARITY = 0.75;
+/** A phrase word may be a loose match (typo); a match below this counts as none. */
+const MIN_WORD_SIMILARITY = 0.8;
+/** Shorter words must match exactly (or by ending): one letter changes too much of them. */
+const MIN_FUZZY_WORD_LENGTH = 4;
 /** Share of the phrase (weighted) the complaint must cover. Keeps "fine on the motorway" from
- * matching "overheats on the motorway" on its little words. */
-const MIN_PHRASE_COVERAGE = 0.7;
-const MIN_SCORE = 0.7;
+ * matching "overheats on the motorway" on its little words, and a phrase from matching with one
+ * of its few content words missing. */
+const MIN_PHRASE_COVERAGE = 0.75;
+const MIN_SCORE = 0.75;
 /** A window may be this many words longer than the phrase it is compared with. */
 const EXTRA_WINDOW_WORDS = 3;
 /** A negation word reaches this many words ahead, within its clause. */
@@ -139,10 +142,16 @@ function measureEditDistance(a: string, b: string): number {
 	return previous[b.length];
 }
 
-function measureWordSimilarity(a: string, b: string): number {
-	if (a === b || stemWord(a) === stemWord(b)) return 1;
-	if (Math.min(a.length, b.length) < 4) return 0;
-	const similarity = 1 - measureEditDistance(a, b) / Math.max(a.length, b.length);
+/**
+ * 1 for the same word or the same stem; a typo's similarity for a word the phrases do not use
+ * themselves ("trafic" for "traffic"); 0 otherwise. A word the phrases know is taken as meant,
+ * so "dripping" never reads as "dropping", nor "seam" as "steam".
+ */
+function measureWordSimilarity(phraseWord: string, word: string, lexicon: ReadonlySet<string>): number {
+	if (phraseWord === word || stemWord(phraseWord) === stemWord(word)) return 1;
+	if (lexicon.has(word) || lexicon.has(stemWord(word))) return 0;
+	if (Math.min(phraseWord.length, word.length) < MIN_FUZZY_WORD_LENGTH) return 0;
+	const similarity = 1 - measureEditDistance(phraseWord, word) / Math.max(phraseWord.length, word.length);
 	return similarity >= MIN_WORD_SIMILARITY ? similarity : 0;
 }
 
@@ -193,6 +202,7 @@ export function buildComplaintMatcher(rulebook: Rulebook): ComplaintMatcher {
 			});
 		}
 	}
+	const lexicon = new Set(entries.flatMap((entry) => entry.words.flatMap((word) => [word, stemWord(word)])));
 	const fuse = new Fuse(entries, {
 		keys: ['text'],
 		useTokenSearch: true,
@@ -211,7 +221,7 @@ export function buildComplaintMatcher(rulebook: Rulebook): ComplaintMatcher {
 					.map((result) => result.item);
 				for (const entry of candidates) {
 					if (skip.has(entry.key)) continue;
-					const found = findBestWindow(entry, segment);
+					const found = findBestWindow(entry, segment, lexicon);
 					if (!found) continue;
 					const windowNegated = found.negatedFrom !== null;
 					let value = entry.value;
@@ -282,7 +292,11 @@ interface WindowMatch {
 	negatedFrom: number | null;
 }
 
-function findBestWindow(entry: PhraseEntry, segment: Segment): WindowMatch | null {
+function findBestWindow(
+	entry: PhraseEntry,
+	segment: Segment,
+	lexicon: ReadonlySet<string>
+): WindowMatch | null {
 	const { tokens } = segment;
 	const maxLength = entry.words.length + EXTRA_WINDOW_WORDS;
 	let best: WindowMatch | null = null;
@@ -294,7 +308,7 @@ function findBestWindow(entry: PhraseEntry, segment: Segment): WindowMatch | nul
 			if (CONJUNCTIONS.has(word) && !entry.conjunctions.has(word)) break;
 			if (!NEGATIONS.has(word)) words.push(word);
 			if (words.length === 0) continue;
-			const score = scoreWindow(entry, words);
+			const score = scoreWindow(entry, words, lexicon);
 			if (score === null || (best && score <= best.score)) continue;
 			best = { start, end, score, negatedFrom: findNegation(segment, start, end) };
 		}
@@ -303,7 +317,11 @@ function findBestWindow(entry: PhraseEntry, segment: Segment): WindowMatch | nul
 }
 
 /** Recall-weighted F-score (β = 2) of phrase words found in the window, or null if too weak. */
-function scoreWindow(entry: PhraseEntry, windowWords: string[]): number | null {
+function scoreWindow(
+	entry: PhraseEntry,
+	windowWords: string[],
+	lexicon: ReadonlySet<string>
+): number | null {
 	const used = new Uint8Array(windowWords.length);
 	let matchedWeight = 0;
 	entry.words.forEach((phraseWord, phraseIndex) => {
@@ -311,7 +329,7 @@ function scoreWindow(entry: PhraseEntry, windowWords: string[]): number | null {
 		let bestIndex = -1;
 		windowWords.forEach((windowWord, windowIndex) => {
 			if (used[windowIndex]) return;
-			const similarity = measureWordSimilarity(phraseWord, windowWord);
+			const similarity = measureWordSimilarity(phraseWord, windowWord, lexicon);
 			if (similarity > bestSimilarity) {
 				bestSimilarity = similarity;
 				bestIndex = windowIndex;

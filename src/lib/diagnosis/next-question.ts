@@ -94,10 +94,56 @@ export interface LookAheadState {
 	logOdds: Float64Array;
 }
 
+interface CauseShift {
+	causeIndex: number;
+	lnLr: number;
+}
+
+interface ObservationLookAhead {
+	/** Per answer option (listAnswerOptions order): the summed ln lr, per cause, of the rules
+	 * that mention only this observation and fire on that answer. They need no evaluation at
+	 * request time: with the observation unanswered they cannot fire, with it answered they
+	 * fire whatever else is known. */
+	singleFactShifts: CauseShift[][];
+	/** Rules that mention this observation and others: evaluated per answer. */
+	sharedRules: CompiledRule[];
+}
+
+const lookAheadIndexCache = new WeakMap<CompiledRulebook, ObservationLookAhead[]>();
+
+/** Built once per compiled edition. Most rules test one observation, so this saves most of the
+ * predicate calls of look-ahead. */
+function getLookAheadIndex(compiled: CompiledRulebook): ObservationLookAhead[] {
+	const cached = lookAheadIndexCache.get(compiled);
+	if (cached) return cached;
+	const observationCount = compiled.rulebook.observations.length;
+	const index = compiled.rulebook.observations.map((observation, observationIndex) => {
+		const rules = (compiled.ruleIndicesByObservation.get(observation.key) ?? []).map(
+			(ruleIndex) => compiled.rules[ruleIndex]
+		);
+		const singleFactRules = rules.filter((rule) => rule.facts.length === 1);
+		const probe: FactVector = new Array(observationCount).fill(undefined);
+		const singleFactShifts = listDefaultOptions(observation).map((option) => {
+			probe[observationIndex] = option.value;
+			const byCause = new Map<number, number>();
+			for (const rule of singleFactRules) {
+				if (rule.predicate(probe)) {
+					byCause.set(rule.causeIndex, (byCause.get(rule.causeIndex) ?? 0) + rule.lnLr);
+				}
+			}
+			return [...byCause].map(([causeIndex, lnLr]) => ({ causeIndex, lnLr }));
+		});
+		return { singleFactShifts, sharedRules: rules.filter((rule) => rule.facts.length > 1) };
+	});
+	lookAheadIndexCache.set(compiled, index);
+	return index;
+}
+
 /**
  * Expected entropy reduction of every observation that is neither answered nor excluded.
- * Only the rules that mention the observation are re-evaluated (compiled predicates), and only
- * their causes' log-odds move, so no engine run happens per hypothetical answer.
+ * Only the rules that mention the observation can change (their effects on one-observation
+ * rules are looked up, the others re-evaluated with compiled predicates), and only their causes'
+ * log-odds move, so no engine run happens per hypothetical answer.
  */
 export function planNextQuestions(
 	compiled: CompiledRulebook,
@@ -106,22 +152,31 @@ export function planNextQuestions(
 	overrides?: FrequencyOverrides
 ): NextQuestion[] {
 	const { facts, fired, logOdds } = state;
+	const lookAhead = getLookAheadIndex(compiled);
 	const causeCount = compiled.causes.length;
 	const entropy = Float64Array.from(logOdds, (value) => binaryEntropyBits(logistic(value)));
 	const delta = new Float64Array(causeCount);
 	const isTouched = new Uint8Array(causeCount);
 	const touched: number[] = [];
+	const live: CompiledRule[] = [];
 	const questions: NextQuestion[] = [];
+	const shift = (causeIndex: number, lnLr: number) => {
+		if (isTouched[causeIndex] === 0) {
+			isTouched[causeIndex] = 1;
+			touched.push(causeIndex);
+		}
+		delta[causeIndex] += lnLr;
+	};
 
 	compiled.rulebook.observations.forEach((observation, observationIndex) => {
 		if (facts[observationIndex] !== undefined || excluded.has(observation.key)) return;
-		// Rules that can start firing on this answer: not firing yet (one more answer never stops
-		// a rule firing, since no leaf holds on an unanswered observation), and not waiting for
-		// some other unanswered observation.
-		const live: CompiledRule[] = [];
-		for (const ruleIndex of compiled.ruleIndicesByObservation.get(observation.key) ?? []) {
-			if (fired[ruleIndex] === 1) continue;
-			const rule = compiled.rules[ruleIndex];
+		const { singleFactShifts, sharedRules } = lookAhead[observationIndex];
+		// Shared rules that can start firing on this answer: not firing yet (one more answer
+		// never stops a rule firing, since no leaf holds on an unanswered observation), and not
+		// waiting for some other unanswered observation.
+		live.length = 0;
+		for (const rule of sharedRules) {
+			if (fired[rule.index] === 1) continue;
 			let waits = false;
 			for (const required of rule.requiredFacts) {
 				if (required !== observationIndex && facts[required] === undefined) {
@@ -132,30 +187,25 @@ export function planNextQuestions(
 			if (!waits) live.push(rule);
 		}
 		let expectedGain = 0;
-		if (live.length > 0) {
-			for (const option of listAnswerOptions(observation, overrides)) {
-				facts[observationIndex] = option.value;
-				for (const rule of live) {
-					if (!rule.predicate(facts)) continue;
-					if (isTouched[rule.causeIndex] === 0) {
-						isTouched[rule.causeIndex] = 1;
-						touched.push(rule.causeIndex);
-					}
-					delta[rule.causeIndex] += rule.lnLr;
-				}
-				let reduction = 0;
-				for (const causeIndex of touched) {
-					if (delta[causeIndex] !== 0) {
-						const after = binaryEntropyBits(logistic(logOdds[causeIndex] + delta[causeIndex]));
-						reduction += entropy[causeIndex] - after;
-					}
-					delta[causeIndex] = 0;
-					isTouched[causeIndex] = 0;
-				}
-				touched.length = 0;
-				expectedGain += option.probability * reduction;
+		const options = listAnswerOptions(observation, overrides);
+		for (let optionIndex = 0; optionIndex < options.length; optionIndex++) {
+			for (const { causeIndex, lnLr } of singleFactShifts[optionIndex]) shift(causeIndex, lnLr);
+			if (live.length > 0) {
+				facts[observationIndex] = options[optionIndex].value;
+				for (const rule of live) if (rule.predicate(facts)) shift(rule.causeIndex, rule.lnLr);
+				facts[observationIndex] = undefined;
 			}
-			facts[observationIndex] = undefined;
+			let reduction = 0;
+			for (const causeIndex of touched) {
+				if (delta[causeIndex] !== 0) {
+					const after = binaryEntropyBits(logistic(logOdds[causeIndex] + delta[causeIndex]));
+					reduction += entropy[causeIndex] - after;
+				}
+				delta[causeIndex] = 0;
+				isTouched[causeIndex] = 0;
+			}
+			touched.length = 0;
+			expectedGain += options[optionIndex].probability * reduction;
 		}
 		questions.push(describeQuestion(observation, expectedGain));
 	});

@@ -4,6 +4,7 @@ import {
 	diagnoseRequestSchema,
 	diagnoseResponseSchema
 } from '../diagnosis/api-schema';
+import { calculatorNames, calculatorResultSchema, calculators } from '../calculators';
 
 const schema = (s: z.ZodType, io: 'input' | 'output') =>
 	z.toJSONSchema(s, { target: 'draft-2020-12', io, unrepresentable: 'any' });
@@ -14,6 +15,57 @@ const errorResponse = (description: string) => ({
 });
 
 let document: Record<string, unknown> | undefined;
+
+/** 'drain-and-fill' → 'DrainAndFillInput': component names may not hold every path character. */
+const calculatorInputName = (name: string) =>
+	name.replace(/(^|-)([a-z])/g, (_, _dash: string, letter: string) => letter.toUpperCase()) +
+	'Input';
+
+/** One path per calculator, so each request body has its own schema instead of a union. */
+function describeCalculatorPaths(): Record<string, unknown> {
+	return Object.fromEntries(
+		calculatorNames.map((name) => [
+			`/api/v1/calculators/${name}`,
+			{
+				post: {
+					operationId: `calculate_${name.replaceAll('-', '_')}`,
+					summary: calculators[name].title,
+					description: calculators[name].description,
+					tags: ['calculators'],
+					requestBody: {
+						required: true,
+						content: {
+							'application/json': {
+								schema: { $ref: `#/components/schemas/${calculatorInputName(name)}` }
+							}
+						}
+					},
+					responses: {
+						'200': {
+							description: 'Every number with its unit, the basis, accuracy, warnings and cautions',
+							content: {
+								'application/json': { schema: { $ref: '#/components/schemas/CalculatorResult' } }
+							}
+						},
+						'400': errorResponse('Not JSON, fails the schema, or a value the calculator cannot answer'),
+						'401': errorResponse('No, unknown or revoked key, and no session'),
+						'413': errorResponse('Body over 16 KiB'),
+						'429': errorResponse('Over the per-key or per-IP limit; see Retry-After')
+					}
+				}
+			}
+		])
+	);
+}
+
+function describeCalculatorInputs(): Record<string, unknown> {
+	return Object.fromEntries(
+		calculatorNames.map((name) => [
+			calculatorInputName(name),
+			schema(calculators[name].inputSchema, 'input')
+		])
+	);
+}
 
 /**
  * OpenAPI 3.1 for the v1 API, generated from the same zod schemas that validate requests, so the
@@ -57,6 +109,20 @@ export function getOpenApiDocument(): Record<string, unknown> {
 					}
 				}
 			},
+			'/api/v1/calculators': {
+				get: {
+					operationId: 'listCalculators',
+					summary: 'List the service calculators with their input schemas',
+					tags: ['calculators'],
+					responses: {
+						'200': {
+							description: '{ calculators: [{ name, title, description, inputSchema }] }'
+						},
+						'401': errorResponse('No, unknown or revoked key, and no session')
+					}
+				}
+			},
+			...describeCalculatorPaths(),
 			'/api/health': {
 				get: {
 					operationId: 'health',
@@ -74,7 +140,9 @@ export function getOpenApiDocument(): Record<string, unknown> {
 			schemas: {
 				DiagnoseRequest: schema(diagnoseRequestSchema, 'input'),
 				DiagnoseResponse: schema(diagnoseResponseSchema, 'output'),
-				Error: schema(apiErrorSchema, 'output')
+				Error: schema(apiErrorSchema, 'output'),
+				CalculatorResult: schema(calculatorResultSchema, 'output'),
+				...describeCalculatorInputs()
 			}
 		}
 	};

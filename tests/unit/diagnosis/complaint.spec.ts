@@ -63,6 +63,14 @@ describe('complaint matching', () => {
 		expect(match('it overheated when idling')).toMatchObject([{ key: 'temp_gauge', value: 'high_at_idle' }]);
 	});
 
+	it('never reads a word the phrases use as a misspelling of another', () => {
+		// "dripping" is a phrase word itself, so it is not a typo of "dropping".
+		expect(match('the level is dripping')).toEqual([]);
+		expect(match('the level keeps droping')).toMatchObject([
+			{ key: 'level_drops_between_checks', value: true }
+		]);
+	});
+
 	it('matches nothing in a complaint about something else', () => {
 		expect(match('the radio crackles and the wipers squeak')).toEqual([]);
 		expect(match('')).toEqual([]);

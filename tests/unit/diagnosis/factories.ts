@@ -221,7 +221,8 @@ export function makeCoolingRulebook(): Rulebook {
 			frequencies: { true: 0.4, false: 0.6 },
 			phrases: [
 				{ text: 'losing water', value: true },
-				{ text: 'keeps losing coolant', value: true }
+				{ text: 'keeps losing coolant', value: true },
+				{ text: 'level keeps dropping', value: true }
 			]
 		}),
 		makeBooleanObservation({
@@ -232,6 +233,7 @@ export function makeCoolingRulebook(): Rulebook {
 			phrases: [
 				{ text: 'leaks on the drive', value: true },
 				{ text: 'puddle under the car', value: true },
+				{ text: 'coolant dripping on the ground', value: true },
 				{ text: 'no drips', value: false }
 			]
 		}),

@@ -1,0 +1,160 @@
+// npm run bench: what a case costs the engine, and what the API sustains on this machine.
+// 1. Engine per case on the base rulebook and on a synthetic rulebook ten times larger.
+// 2. API throughput: POST /api/v1/diagnose against GET /api/health on the same production server
+//    (autocannon, 10 connections), with fixed and with varied request bodies.
+import { existsSync } from 'node:fs';
+import { spawnSync } from 'node:child_process';
+import autocannon from 'autocannon';
+import { createDiagnoser, makeSyntheticRulebook, type Rulebook } from '../src/lib/diagnosis';
+import { loadRulebookFromDir } from '../src/lib/diagnosis/load';
+import { startServer } from '../tests/support/server';
+
+type Value = boolean | string | number;
+const DURATION_S = Number(process.env.BENCH_SECONDS ?? 10);
+
+/** A deterministic pseudo-random generator, so every run measures the same cases. */
+function mulberry32(seed: number) {
+	return () => {
+		seed |= 0;
+		seed = (seed + 0x6d2b79f5) | 0;
+		let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
+		t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
+		return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+	};
+}
+
+/** Cases like a technician's part-way through: a handful to a dozen answered observations. */
+function makeCases(rulebook: Rulebook, count: number, seed = 7) {
+	const random = mulberry32(seed);
+	return Array.from({ length: count }, () => {
+		const observations: Record<string, Value> = {};
+		const answered = 3 + Math.floor(random() * 10);
+		for (let i = 0; i < answered; i++) {
+			const o = rulebook.observations[Math.floor(random() * rulebook.observations.length)];
+			if (o.kind === 'boolean') observations[o.key] = random() < 0.5;
+			else if (o.kind === 'enum') observations[o.key] = o.values[Math.floor(random() * o.values.length)];
+			else observations[o.key] = o.bins[Math.floor(random() * o.bins.length)].value;
+		}
+		return observations;
+	});
+}
+
+async function timePerCase(label: string, cases: unknown[], fn: (c: never) => unknown) {
+	for (const c of cases.slice(0, 50)) await fn(c as never); // warm-up
+	const started = performance.now();
+	for (const c of cases) await fn(c as never);
+	const us = ((performance.now() - started) * 1000) / cases.length;
+	return { label, us };
+}
+
+const COMPLAINTS = [
+	'gets hot sitting in traffic, fine on the motorway',
+	'sweet smell inside the car and the windows fog up',
+	'losing water but no leaks on the drive',
+	'white smoke out the back all the time and the heater blows cold',
+	'temp gauge goes up and down, steam from under the bonnet after a long drive'
+];
+
+async function benchEngine() {
+	const base = loadRulebookFromDir('rules');
+	const rows: { rulebook: string; rules: number; label: string; us: number }[] = [];
+	for (const [name, rulebook] of [
+		['base', base],
+		['synthetic ×10', makeSyntheticRulebook(base, 10)]
+	] as const) {
+		const diagnoser = createDiagnoser(rulebook);
+		const cases = makeCases(rulebook, name === 'base' ? 1000 : 300);
+		const measure = async (label: string, fn: (c: Record<string, Value>) => unknown) =>
+			rows.push({ rulebook: name, rules: rulebook.rules.length, ...(await timePerCase(label, cases, fn)) });
+		await measure('json-rules-engine run', (facts) => diagnoser.evaluateWithEngine(facts));
+		await measure('compiled predicates', (facts) => diagnoser.evaluateCompiled(facts));
+		await measure('diagnose, engine evaluation (rank + next questions + tests)', (observations) =>
+			diagnoser.diagnose({ observations }, { evaluator: 'engine' })
+		);
+		await measure('diagnose, compiled evaluation', (observations) =>
+			diagnoser.diagnose({ observations }, { evaluator: 'compiled' })
+		);
+		if (name === 'base') {
+			await measure('diagnose with a complaint to match', (observations) =>
+				diagnoser.diagnose({ observations, complaint: COMPLAINTS[Object.keys(observations).length % COMPLAINTS.length] })
+			);
+		}
+	}
+	console.log('\nEngine cost per case (mean over deterministic random cases)');
+	console.table(rows.map((r) => ({ rulebook: r.rulebook, rules: r.rules, step: r.label, 'µs per case': Math.round(r.us) })));
+	return rows;
+}
+
+async function load(url: string, opts: Partial<autocannon.Options>) {
+	const result = await autocannon({ url, connections: 10, duration: DURATION_S, ...opts });
+	return {
+		'req/s': Math.round(result.requests.average),
+		'p50 ms': result.latency.p50,
+		'p99 ms': result.latency.p99,
+		errors: result.errors + result.timeouts,
+		'non-2xx': result.non2xx,
+		requests: result.requests.total
+	};
+}
+
+async function benchApi() {
+	if (!existsSync('build/index.js')) {
+		const built = spawnSync('npx', ['vite', 'build'], { stdio: 'inherit' });
+		if (built.status !== 0) throw new Error('build failed');
+	}
+	const key = 'cw_benchmarkintakekey00000000001';
+	const server = await startServer({
+		name: 'bench',
+		env: {
+			CAUSEWAY_SEED_DEMO: '1',
+			DEMO_PASSWORD: 'bench-demo-password',
+			DEMO_API_KEY: key,
+			API_RATE_LIMIT_PER_MINUTE: '100000000',
+			API_IP_RATE_LIMIT_PER_MINUTE: '100000000'
+		}
+	});
+	try {
+		const headers = { authorization: `Bearer ${key}`, 'content-type': 'application/json' };
+		const fixedBody = JSON.stringify({
+			observations: { temp_gauge: 'high_at_idle', fan_runs_when_hot: false, coolant_level: 'full' },
+			complaint: COMPLAINTS[0]
+		});
+		const base = loadRulebookFromDir('rules');
+		const bodies = makeCases(base, 200, 11).map((observations, i) =>
+			JSON.stringify({ observations, complaint: i % 2 ? COMPLAINTS[i % COMPLAINTS.length] + ` (visit ${i})` : undefined })
+		);
+		let next = 0;
+		// Warm the server (JIT, compiled edition) before measuring.
+		await load(`${server.baseUrl}/api/v1/diagnose`, { method: 'POST', headers, body: fixedBody, duration: 2 });
+		const rows = {
+			'GET /api/health': await load(`${server.baseUrl}/api/health`, {}),
+			'POST /api/v1/diagnose (same body)': await load(`${server.baseUrl}/api/v1/diagnose`, {
+				method: 'POST',
+				headers,
+				body: fixedBody
+			}),
+			'POST /api/v1/diagnose (200 varied bodies)': await load(`${server.baseUrl}/api/v1/diagnose`, {
+				requests: [
+					{
+						method: 'POST',
+						headers,
+						setupRequest: (request) => ({ ...request, body: bodies[next++ % bodies.length] })
+					}
+				]
+			})
+		};
+		console.log(`\nAPI throughput, 10 connections, ${DURATION_S} s each, server and load on this machine`);
+		console.table(rows);
+		const health = rows['GET /api/health']['req/s'];
+		for (const [name, row] of Object.entries(rows)) {
+			if (name.startsWith('POST')) {
+				console.log(`${name}: ${((row['req/s'] / health) * 100).toFixed(0)} % of health throughput`);
+			}
+		}
+	} finally {
+		await server.stop();
+	}
+}
+
+await benchEngine();
+if (!process.argv.includes('--engine-only')) await benchApi();

@@ -1,0 +1,10 @@
+import { json } from '@sveltejs/kit';
+import { listCalculators } from '$lib/server/calculators';
+import { authenticateApi } from '$lib/server/guard';
+import { apiHandler } from '$lib/server/http';
+import type { RequestHandler } from './$types';
+
+export const GET: RequestHandler = apiHandler(async (event) => {
+	await authenticateApi(event, 'calculators:use');
+	return json({ calculators: listCalculators() });
+});
