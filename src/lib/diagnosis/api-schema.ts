@@ -42,7 +42,13 @@ export const vehicleSchema = z
 		year: z.number().int().min(1900).max(2100).optional().meta({ description: 'Model year.' }),
 		make: z.string().trim().min(1).max(100).optional(),
 		model: z.string().trim().min(1).max(100).optional(),
-		engine: z.string().trim().min(1).max(100).optional().meta({ description: 'Engine code or size.' }),
+		engine: z
+			.string()
+			.trim()
+			.min(1)
+			.max(100)
+			.optional()
+			.meta({ description: 'Engine code or size.' }),
 		odometerKm: z
 			.number()
 			.min(0)
@@ -59,18 +65,13 @@ export const diagnoseRequestSchema = z
 			.record(z.string().min(1).max(100), observationValueSchema)
 			.default({})
 			.meta({
-				description:
-					'Answers by observation key (keys and values from the rulebook vocabulary).',
+				description: 'Answers by observation key (keys and values from the rulebook vocabulary).',
 				example: { temp_gauge: 'high_at_idle', fan_runs_when_hot: false }
 			}),
-		unknown: z
-			.array(z.string().min(1).max(100))
-			.max(500)
-			.default([])
-			.meta({
-				description:
-					'Observation keys that were asked but could not be answered: no evidence, and left out of nextQuestions.'
-			}),
+		unknown: z.array(z.string().min(1).max(100)).max(500).default([]).meta({
+			description:
+				'Observation keys that were asked but could not be answered: no evidence, and left out of nextQuestions.'
+		}),
 		complaint: z
 			.string()
 			.max(MAX_COMPLAINT_CHARS)
@@ -94,13 +95,16 @@ export const evidenceSchema = z
 	.object({
 		rule: z.string().meta({ description: 'Key of the rule that fired.' }),
 		lr: z.number().positive().meta({
-			description: 'Likelihood ratio of the rule: above 1 supports the cause, below 1 argues against it.'
+			description:
+				'Likelihood ratio of the rule: above 1 supports the cause, below 1 argues against it.'
 		}),
 		because: z.string().meta({ description: 'The rule’s rationale.' }),
 		source: z
 			.string()
 			.optional()
-			.meta({ description: 'Where the rule’s reasoning was published, or "common practice, no source".' })
+			.meta({
+				description: 'Where the rule’s reasoning was published, or "common practice, no source".'
+			})
 	})
 	.meta({ id: 'Evidence' });
 

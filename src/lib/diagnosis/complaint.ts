@@ -147,11 +147,16 @@ function measureEditDistance(a: string, b: string): number {
  * themselves ("trafic" for "traffic"); 0 otherwise. A word the phrases know is taken as meant,
  * so "dripping" never reads as "dropping", nor "seam" as "steam".
  */
-function measureWordSimilarity(phraseWord: string, word: string, lexicon: ReadonlySet<string>): number {
+function measureWordSimilarity(
+	phraseWord: string,
+	word: string,
+	lexicon: ReadonlySet<string>
+): number {
 	if (phraseWord === word || stemWord(phraseWord) === stemWord(word)) return 1;
 	if (lexicon.has(word) || lexicon.has(stemWord(word))) return 0;
 	if (Math.min(phraseWord.length, word.length) < MIN_FUZZY_WORD_LENGTH) return 0;
-	const similarity = 1 - measureEditDistance(phraseWord, word) / Math.max(phraseWord.length, word.length);
+	const similarity =
+		1 - measureEditDistance(phraseWord, word) / Math.max(phraseWord.length, word.length);
 	return similarity >= MIN_WORD_SIMILARITY ? similarity : 0;
 }
 
@@ -202,7 +207,9 @@ export function buildComplaintMatcher(rulebook: Rulebook): ComplaintMatcher {
 			});
 		}
 	}
-	const lexicon = new Set(entries.flatMap((entry) => entry.words.flatMap((word) => [word, stemWord(word)])));
+	const lexicon = new Set(
+		entries.flatMap((entry) => entry.words.flatMap((word) => [word, stemWord(word)]))
+	);
 	const fuse = new Fuse(entries, {
 		keys: ['text'],
 		useTokenSearch: true,
@@ -230,7 +237,8 @@ export function buildComplaintMatcher(rulebook: Rulebook): ComplaintMatcher {
 						if (entry.kind !== 'boolean') continue;
 						value = !value;
 					}
-					const startToken = segment.tokens[Math.min(found.negatedFrom ?? found.start, found.start)];
+					const startToken =
+						segment.tokens[Math.min(found.negatedFrom ?? found.start, found.start)];
 					const endToken = segment.tokens[found.end - 1];
 					const match = {
 						key: entry.key,

@@ -79,7 +79,10 @@ function compileLeaf(leaf: ConditionLeaf, indexOf: (key: string) => number): Pre
 }
 
 /** Turns a condition tree into a plain closure over its JSON (no eval, no generated code). */
-export function compileCondition(condition: Condition, indexOf: (key: string) => number): Predicate {
+export function compileCondition(
+	condition: Condition,
+	indexOf: (key: string) => number
+): Predicate {
 	if ('all' in condition) {
 		const members = condition.all.map((member) => compileCondition(member, indexOf));
 		return (facts) => {
@@ -99,7 +102,10 @@ export function compileCondition(condition: Condition, indexOf: (key: string) =>
 
 /** Observations every way of satisfying the condition needs answered (no leaf holds on an
  * unanswered one): all of a group's members' needs, or what all members of an `any` share. */
-export function findRequiredFacts(condition: Condition, indexOf: (key: string) => number): Set<number> {
+export function findRequiredFacts(
+	condition: Condition,
+	indexOf: (key: string) => number
+): Set<number> {
 	if ('all' in condition) {
 		const required = new Set<number>();
 		for (const member of condition.all) {
@@ -121,7 +127,9 @@ export function logit(probability: number): number {
 export function compileRulebook(rulebook: Rulebook): CompiledRulebook {
 	const causeIndexByKey = new Map(rulebook.causes.map((cause, index) => [cause.key, index]));
 	const observationsByKey = new Map(rulebook.observations.map((obs) => [obs.key, obs]));
-	const observationIndexByKey = new Map(rulebook.observations.map((obs, index) => [obs.key, index]));
+	const observationIndexByKey = new Map(
+		rulebook.observations.map((obs, index) => [obs.key, index])
+	);
 	const indexOf = (key: string) => {
 		const index = observationIndexByKey.get(key);
 		if (index === undefined) throw new Error(`unknown observation ${key}`);
@@ -246,5 +254,9 @@ export function buildEngineEvaluator(compiled: CompiledRulebook): EngineEvaluato
 }
 
 export function listFiredRuleKeys(compiled: CompiledRulebook, fired: FiredMask): string[] {
-	return compiled.rules.filter((rule) => fired[rule.index] === 1).map((rule) => rule.key);
+	const keys: string[] = [];
+	for (let index = 0; index < fired.length; index++) {
+		if (fired[index] === 1) keys.push(compiled.rules[index].key);
+	}
+	return keys;
 }

@@ -9,6 +9,7 @@ import {
 } from './evaluate';
 import {
 	planNextQuestions,
+	prepareLookAhead,
 	roundGainBits,
 	type FrequencyOverrides,
 	type NextQuestion
@@ -122,12 +123,16 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 	const book = parsed.rulebook;
 	const compiled = compileRulebook(book);
 	const engine = buildEngineEvaluator(compiled);
+	prepareLookAhead(compiled);
 	const matcher = buildComplaintMatcher(book);
 	const testTargets = findTestTargets(compiled);
 	const causesByKey = new Map(book.causes.map((cause) => [cause.key, cause]));
 	const defaultEvaluator = options.evaluator ?? 'engine';
 
-	async function analyse(input: DiagnoseInput, runOptions: DiagnoseOptions = {}): Promise<Analysis> {
+	async function analyse(
+		input: DiagnoseInput,
+		runOptions: DiagnoseOptions = {}
+	): Promise<Analysis> {
 		const unknown = new Set(
 			(input.unknown ?? []).filter((key) => compiled.observationsByKey.has(key))
 		);
@@ -143,14 +148,16 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 			...matched.map((match): [string, ObservationValue] => [match.key, match.value])
 		];
 		const facts = toFactVector(compiled, answers);
-		const isAnswered = (key: string) => facts[compiled.observationIndexByKey.get(key) ?? -1] !== undefined;
+		const isAnswered = (key: string) =>
+			facts[compiled.observationIndexByKey.get(key) ?? -1] !== undefined;
 
 		const evaluator = runOptions.evaluator ?? defaultEvaluator;
 		const fired: FiredMask =
 			evaluator === 'engine' ? await engine.run(facts) : evaluateCompiled(compiled, facts);
-		const causes = rankCauses(compiled, fired);
 		const logOdds = sumLogOdds(compiled, fired);
+		const causes = rankCauses(compiled, fired, logOdds);
 		const probabilities = logOdds.map(logistic);
+		const causeOrder = causes.map((cause) => compiled.causeIndexByKey.get(cause.key) as number);
 
 		const nextQuestions = planNextQuestions(
 			compiled,
@@ -162,6 +169,7 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 			compiled,
 			testTargets,
 			probabilities,
+			causeOrder,
 			(key) => isAnswered(key) || unknown.has(key)
 		);
 		const cautions = listUnique([
@@ -209,7 +217,10 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 			};
 		},
 		async evaluateWithEngine(facts) {
-			return listFiredRuleKeys(compiled, await engine.run(toFactVector(compiled, Object.entries(facts))));
+			return listFiredRuleKeys(
+				compiled,
+				await engine.run(toFactVector(compiled, Object.entries(facts)))
+			);
 		},
 		evaluateCompiled(facts) {
 			return listFiredRuleKeys(

@@ -24,7 +24,9 @@ export class RulebookError extends Error {
 }
 
 export function formatFileIssue(issue: RulebookFileIssue): string {
-	return issue.path ? `${issue.file}: ${issue.path}: ${issue.message}` : `${issue.file}: ${issue.message}`;
+	return issue.path
+		? `${issue.file}: ${issue.path}: ${issue.message}`
+		: `${issue.file}: ${issue.message}`;
 }
 
 // meta.json holds the meta object itself; the other files wrap their list in one named key.

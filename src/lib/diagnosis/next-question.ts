@@ -1,6 +1,12 @@
 import type { CompiledRule, CompiledRulebook, FactVector, FiredMask } from './evaluate';
 import { logistic } from './rank';
-import type { Bin, Observation, ObservationGroup, ObservationKind, ObservationValue } from './schema';
+import type {
+	Bin,
+	Observation,
+	ObservationGroup,
+	ObservationKind,
+	ObservationValue
+} from './schema';
 
 /** Answer frequencies that replace the rulebook's, e.g. from a shop's closed cases:
  * `{ temp_gauge: { normal: 0.4, high_at_idle: 0.3, … }, fan_runs_when_hot: { true: 0.8, false: 0.2 } }`.
@@ -38,7 +44,8 @@ function listDefaultOptions(observation: Observation): AnswerOption[] {
 	if (observation.kind === 'number') {
 		return observation.bins.map((bin) => ({ value: bin.value, probability: bin.frequency }));
 	}
-	const values: ObservationValue[] = observation.kind === 'boolean' ? [true, false] : observation.values;
+	const values: ObservationValue[] =
+		observation.kind === 'boolean' ? [true, false] : observation.values;
 	return values.map((value) => ({
 		value,
 		probability: observation.frequencies[String(value)] ?? 0
@@ -48,7 +55,10 @@ function listDefaultOptions(observation: Observation): AnswerOption[] {
 function normaliseOptions(options: AnswerOption[]): AnswerOption[] | null {
 	const total = options.reduce((sum, option) => sum + option.probability, 0);
 	if (!(total > 0) || !Number.isFinite(total)) return null;
-	return options.map((option) => ({ value: option.value, probability: option.probability / total }));
+	return options.map((option) => ({
+		value: option.value,
+		probability: option.probability / total
+	}));
 }
 
 /**
@@ -99,7 +109,7 @@ interface CauseShift {
 	lnLr: number;
 }
 
-interface ObservationLookAhead {
+export interface ObservationLookAhead {
 	/** Per answer option (listAnswerOptions order): the summed ln lr, per cause, of the rules
 	 * that mention only this observation and fire on that answer. They need no evaluation at
 	 * request time: with the observation unanswered they cannot fire, with it answered they
@@ -113,7 +123,7 @@ const lookAheadIndexCache = new WeakMap<CompiledRulebook, ObservationLookAhead[]
 
 /** Built once per compiled edition. Most rules test one observation, so this saves most of the
  * predicate calls of look-ahead. */
-function getLookAheadIndex(compiled: CompiledRulebook): ObservationLookAhead[] {
+export function prepareLookAhead(compiled: CompiledRulebook): ObservationLookAhead[] {
 	const cached = lookAheadIndexCache.get(compiled);
 	if (cached) return cached;
 	const observationCount = compiled.rulebook.observations.length;
@@ -152,7 +162,7 @@ export function planNextQuestions(
 	overrides?: FrequencyOverrides
 ): NextQuestion[] {
 	const { facts, fired, logOdds } = state;
-	const lookAhead = getLookAheadIndex(compiled);
+	const lookAhead = prepareLookAhead(compiled);
 	const causeCount = compiled.causes.length;
 	const entropy = Float64Array.from(logOdds, (value) => binaryEntropyBits(logistic(value)));
 	const delta = new Float64Array(causeCount);
@@ -209,7 +219,9 @@ export function planNextQuestions(
 		}
 		questions.push(describeQuestion(observation, expectedGain));
 	});
-	const shownGains = new Map(questions.map((question) => [question, roundGainBits(question.expectedGain)]));
+	const shownGains = new Map(
+		questions.map((question) => [question, roundGainBits(question.expectedGain)])
+	);
 	// Order by what the caller will see (4 decimals), so equal shown gains list by key.
 	return questions.sort(
 		(a, b) =>

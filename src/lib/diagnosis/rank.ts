@@ -40,8 +40,11 @@ export function sumLogOdds(compiled: CompiledRulebook, fired: FiredMask): Float6
 	return logOdds;
 }
 
-export function rankCauses(compiled: CompiledRulebook, fired: FiredMask): RankedCause[] {
-	const logOdds = sumLogOdds(compiled, fired);
+export function rankCauses(
+	compiled: CompiledRulebook,
+	fired: FiredMask,
+	logOdds: Float64Array = sumLogOdds(compiled, fired)
+): RankedCause[] {
 	const evidenceByCause: Evidence[][] = compiled.causes.map(() => []);
 	for (const rule of compiled.rules) {
 		if (fired[rule.index] !== 1) continue;

@@ -12,7 +12,12 @@ export const LR_MAX = 100;
 /** Answer frequencies and bin frequencies must sum to 1 within this tolerance. */
 export const FREQUENCY_SUM_TOLERANCE = 0.01;
 
-export const OBSERVATION_GROUPS = ['vehicle_history', 'symptom', 'inspection', 'test_result'] as const;
+export const OBSERVATION_GROUPS = [
+	'vehicle_history',
+	'symptom',
+	'inspection',
+	'test_result'
+] as const;
 export const OBSERVATION_KINDS = ['boolean', 'enum', 'number'] as const;
 export const SET_OPERATORS = ['in', 'notIn'] as const;
 export const SCALAR_OPERATORS = ['equal', 'notEqual'] as const;
@@ -140,13 +145,11 @@ export const observationSchema = z
 		for (const issue of checkObservation(observation)) ctx.addIssue({ code: 'custom', ...issue });
 	});
 
-export const conditionSchema = z
-	.custom<TopLevelCondition>()
-	.superRefine((condition, ctx) => {
-		for (const issue of checkConditionShape(condition, [], 1)) {
-			ctx.addIssue({ code: 'custom', ...issue });
-		}
-	});
+export const conditionSchema = z.custom<TopLevelCondition>().superRefine((condition, ctx) => {
+	for (const issue of checkConditionShape(condition, [], 1)) {
+		ctx.addIssue({ code: 'custom', ...issue });
+	}
+});
 
 export const ruleSchema = z.strictObject({
 	key: z
@@ -158,10 +161,7 @@ export const ruleSchema = z.strictObject({
 		.refine(Number.isFinite, 'lr must be a finite number')
 		.refine((lr) => lr > 0, 'lr must be above 0')
 		.refine((lr) => lr !== 1, 'lr must not be 1 (a rule with lr 1 changes nothing)')
-		.refine(
-			(lr) => lr >= LR_MIN && lr <= LR_MAX,
-			`lr must be between ${LR_MIN} and ${LR_MAX}`
-		),
+		.refine((lr) => lr >= LR_MIN && lr <= LR_MAX, `lr must be between ${LR_MIN} and ${LR_MAX}`),
 	conditions: conditionSchema,
 	rationale: textSchema,
 	source: textSchema
@@ -299,7 +299,10 @@ function checkObservation(observation: Observation): PathIssue[] {
 	}
 	if (observation.kind === 'number') {
 		if (!(observation.min < observation.max)) {
-			issues.push({ path: ['max'], message: `max (${observation.max}) must be above min (${observation.min})` });
+			issues.push({
+				path: ['max'],
+				message: `max (${observation.max}) must be above min (${observation.min})`
+			});
 		}
 		const seenBins = new Set<number>();
 		let total = 0;
@@ -312,7 +315,10 @@ function checkObservation(observation: Observation): PathIssue[] {
 				});
 			}
 			if (seenBins.has(bin.value)) {
-				issues.push({ path: ['bins', index, 'value'], message: `duplicate bin value ${bin.value}` });
+				issues.push({
+					path: ['bins', index, 'value'],
+					message: `duplicate bin value ${bin.value}`
+				});
 			}
 			seenBins.add(bin.value);
 		});
@@ -430,7 +436,10 @@ function findDuplicateKeys(
 	const issues: PathIssue[] = [];
 	items.forEach((item, index) => {
 		if (seen.has(item.key)) {
-			issues.push({ path: [collection, index, 'key'], message: `duplicate ${what} key "${item.key}"` });
+			issues.push({
+				path: [collection, index, 'key'],
+				message: `duplicate ${what} key "${item.key}"`
+			});
 		}
 		seen.add(item.key);
 	});
@@ -444,9 +453,13 @@ export function forEachConditionLeaf(
 	path: PathSegment[] = []
 ): void {
 	if ('all' in condition) {
-		condition.all.forEach((member, index) => forEachConditionLeaf(member, visit, [...path, 'all', index]));
+		condition.all.forEach((member, index) =>
+			forEachConditionLeaf(member, visit, [...path, 'all', index])
+		);
 	} else if ('any' in condition) {
-		condition.any.forEach((member, index) => forEachConditionLeaf(member, visit, [...path, 'any', index]));
+		condition.any.forEach((member, index) =>
+			forEachConditionLeaf(member, visit, [...path, 'any', index])
+		);
 	} else {
 		visit(condition, path);
 	}
@@ -479,7 +492,9 @@ function checkLeafAgainstObservation(
 	const isSetOperator = (SET_OPERATORS as readonly string[]).includes(operator);
 	if (isSetOperator) {
 		if (!Array.isArray(leaf.value) || leaf.value.length === 0) {
-			return [{ path: [...path, 'value'], message: `${operator} needs a non-empty array of values` }];
+			return [
+				{ path: [...path, 'value'], message: `${operator} needs a non-empty array of values` }
+			];
 		}
 		const issues: PathIssue[] = [];
 		leaf.value.forEach((item, index) => {
@@ -507,7 +522,8 @@ function checkCrossReferences(rulebook: z.output<typeof rulebookShapeSchema>): P
 	const causeKeys = new Set(rulebook.causes.map((cause) => cause.key));
 	const observationsByKey = new Map<string, Observation>();
 	for (const observation of rulebook.observations) {
-		if (!observationsByKey.has(observation.key)) observationsByKey.set(observation.key, observation);
+		if (!observationsByKey.has(observation.key))
+			observationsByKey.set(observation.key, observation);
 	}
 
 	rulebook.causes.forEach((cause, index) => {
@@ -530,7 +546,10 @@ function checkCrossReferences(rulebook: z.output<typeof rulebookShapeSchema>): P
 			(leaf, leafPath) => {
 				const observation = observationsByKey.get(leaf.fact);
 				if (!observation) {
-					issues.push({ path: [...leafPath, 'fact'], message: `unknown observation "${leaf.fact}"` });
+					issues.push({
+						path: [...leafPath, 'fact'],
+						message: `unknown observation "${leaf.fact}"`
+					});
 					return;
 				}
 				issues.push(...checkLeafAgainstObservation(leaf, observation, leafPath));
@@ -551,7 +570,10 @@ function checkCrossReferences(rulebook: z.output<typeof rulebookShapeSchema>): P
 	const setObservations = new Set<string>();
 	rulebook.tests.forEach((test, index) => {
 		if (!observationsByKey.has(test.sets)) {
-			issues.push({ path: ['tests', index, 'sets'], message: `unknown observation "${test.sets}"` });
+			issues.push({
+				path: ['tests', index, 'sets'],
+				message: `unknown observation "${test.sets}"`
+			});
 		}
 		setObservations.add(test.sets);
 	});

@@ -1,8 +1,10 @@
 import type { Condition, Rulebook, TopLevelCondition } from './schema';
 
 function renameFacts(condition: Condition, rename: (key: string) => string): Condition {
-	if ('all' in condition) return { all: condition.all.map((member) => renameFacts(member, rename)) };
-	if ('any' in condition) return { any: condition.any.map((member) => renameFacts(member, rename)) };
+	if ('all' in condition)
+		return { all: condition.all.map((member) => renameFacts(member, rename)) };
+	if ('any' in condition)
+		return { any: condition.any.map((member) => renameFacts(member, rename)) };
 	return { ...condition, fact: rename(condition.fact) };
 }
 
@@ -22,7 +24,10 @@ export function makeSyntheticRulebook(base: Rulebook, factor: number): Rulebook 
 			base.causes.map((cause) => ({ ...cause, key: suffix(cause.key, copy) }))
 		),
 		observations: copies.flatMap((copy) =>
-			base.observations.map((observation) => ({ ...observation, key: suffix(observation.key, copy) }))
+			base.observations.map((observation) => ({
+				...observation,
+				key: suffix(observation.key, copy)
+			}))
 		),
 		rules: copies.flatMap((copy) =>
 			base.rules.map((rule) => ({
@@ -33,7 +38,11 @@ export function makeSyntheticRulebook(base: Rulebook, factor: number): Rulebook 
 			}))
 		),
 		tests: copies.flatMap((copy) =>
-			base.tests.map((test) => ({ ...test, key: suffix(test.key, copy), sets: suffix(test.sets, copy) }))
+			base.tests.map((test) => ({
+				...test,
+				key: suffix(test.key, copy),
+				sets: suffix(test.sets, copy)
+			}))
 		)
 	};
 }

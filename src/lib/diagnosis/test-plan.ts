@@ -17,15 +17,16 @@ export interface PlannedTest {
 	score: number;
 }
 
-/** Per test, the causes of every rule whose conditions mention the observation it sets. */
-export function findTestTargets(compiled: CompiledRulebook): Map<string, number[]> {
-	const targets = new Map<string, number[]>();
+/** Per test, which causes (by index) it can confirm or clear: those of every rule whose
+ * conditions mention the observation it sets. */
+export function findTestTargets(compiled: CompiledRulebook): Map<string, Uint8Array> {
+	const targets = new Map<string, Uint8Array>();
 	for (const test of compiled.rulebook.tests) {
-		const causeIndices = new Set<number>();
+		const isTarget = new Uint8Array(compiled.causes.length);
 		for (const ruleIndex of compiled.ruleIndicesByObservation.get(test.sets) ?? []) {
-			causeIndices.add(compiled.rules[ruleIndex].causeIndex);
+			isTarget[compiled.rules[ruleIndex].causeIndex] = 1;
 		}
-		targets.set(test.key, [...causeIndices]);
+		targets.set(test.key, isTarget);
 	}
 	return targets;
 }
@@ -33,28 +34,32 @@ export function findTestTargets(compiled: CompiledRulebook): Map<string, number[
 /**
  * Orders the confirming tests still worth doing by (probability mass of their targets) / minutes,
  * highest first: the p/c rule of decision-theoretic troubleshooting. A test whose observation is
- * answered or marked unknown is left out.
+ * answered or marked unknown is left out. `causeOrder` is the ranking (cause indices, most
+ * probable first), which also orders each test's targets.
  */
 export function planTests(
 	compiled: CompiledRulebook,
-	testTargets: ReadonlyMap<string, number[]>,
+	testTargets: ReadonlyMap<string, Uint8Array>,
 	probabilities: Float64Array,
+	causeOrder: readonly number[],
 	isSettled: (observationKey: string) => boolean
 ): PlannedTest[] {
 	const planned: Omit<PlannedTest, 'priority'>[] = [];
 	for (const test of compiled.rulebook.tests) {
 		if (isSettled(test.sets)) continue;
-		const causeIndices = [...(testTargets.get(test.key) ?? [])].sort(
-			(a, b) =>
-				probabilities[b] - probabilities[a] ||
-				compareKeys(compiled.causes[a].key, compiled.causes[b].key)
-		);
-		const mass = causeIndices.reduce((sum, index) => sum + probabilities[index], 0);
+		const isTarget = testTargets.get(test.key);
+		const targets: string[] = [];
+		let mass = 0;
+		for (const causeIndex of causeOrder) {
+			if (isTarget?.[causeIndex] !== 1) continue;
+			targets.push(compiled.causes[causeIndex].key);
+			mass += probabilities[causeIndex];
+		}
 		planned.push({
 			key: test.key,
 			name: test.name,
 			minutes: test.minutes,
-			targets: causeIndices.map((index) => compiled.causes[index].key),
+			targets,
 			cautions: test.cautions,
 			equipment: test.equipment,
 			steps: test.steps,

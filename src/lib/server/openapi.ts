@@ -47,7 +47,9 @@ function describeCalculatorPaths(): Record<string, unknown> {
 								'application/json': { schema: { $ref: '#/components/schemas/CalculatorResult' } }
 							}
 						},
-						'400': errorResponse('Not JSON, fails the schema, or a value the calculator cannot answer'),
+						'400': errorResponse(
+							'Not JSON, fails the schema, or a value the calculator cannot answer'
+						),
 						'401': errorResponse('No, unknown or revoked key, and no session'),
 						'413': errorResponse('Body over 16 KiB'),
 						'429': errorResponse('Over the per-key or per-IP limit; see Retry-After')

@@ -10,7 +10,12 @@ describe('complaint matching', () => {
 	it('reads "gets hot sitting in traffic, fine on the motorway" as hot at idle, and nothing about speed', () => {
 		const matched = match('gets hot sitting in traffic, fine on the motorway');
 		expect(matched).toEqual([
-			{ key: 'temp_gauge', value: 'high_at_idle', from: 'hot sitting in traffic', score: expect.any(Number) }
+			{
+				key: 'temp_gauge',
+				value: 'high_at_idle',
+				from: 'hot sitting in traffic',
+				score: expect.any(Number)
+			}
 		]);
 		expect(matched[0].score).toBeGreaterThan(0.8);
 		expect(matched[0].score).toBeLessThan(1);
@@ -37,11 +42,19 @@ describe('complaint matching', () => {
 	});
 
 	it('turns a negated yes/no phrase into the opposite answer, and keeps a phrase’s own negation', () => {
-		expect(match("the fan doesn't come on")).toMatchObject([{ key: 'fan_runs_when_hot', value: false }]);
+		expect(match("the fan doesn't come on")).toMatchObject([
+			{ key: 'fan_runs_when_hot', value: false }
+		]);
 		expect(match('fan never comes on')).toMatchObject([{ key: 'fan_runs_when_hot', value: false }]);
-		expect(match('the fan kicks in fine')).toMatchObject([{ key: 'fan_runs_when_hot', value: true }]);
-		expect(match('without a puddle under the car')).toMatchObject([{ key: 'puddle_under_vehicle', value: false }]);
-		expect(match('isnt losing water')).toMatchObject([{ key: 'level_drops_between_checks', value: false }]);
+		expect(match('the fan kicks in fine')).toMatchObject([
+			{ key: 'fan_runs_when_hot', value: true }
+		]);
+		expect(match('without a puddle under the car')).toMatchObject([
+			{ key: 'puddle_under_vehicle', value: false }
+		]);
+		expect(match('isnt losing water')).toMatchObject([
+			{ key: 'level_drops_between_checks', value: false }
+		]);
 	});
 
 	it('skips a negated phrase of a choice observation and uses the one that is not negated', () => {
@@ -60,7 +73,9 @@ describe('complaint matching', () => {
 
 	it('tolerates small misspellings and other word endings', () => {
 		expect(match('sweet smel insde')).toMatchObject([{ key: 'sweet_smell', value: 'cabin' }]);
-		expect(match('it overheated when idling')).toMatchObject([{ key: 'temp_gauge', value: 'high_at_idle' }]);
+		expect(match('it overheated when idling')).toMatchObject([
+			{ key: 'temp_gauge', value: 'high_at_idle' }
+		]);
 	});
 
 	it('never reads a word the phrases use as a misspelling of another', () => {
@@ -101,7 +116,10 @@ describe('complaint evidence in a diagnosis', () => {
 		});
 		expect(withComplaint.causes).toEqual(explicit.causes);
 		expect(withComplaint.causes[0].key).toBe('heater_core_leak');
-		expect(withComplaint.matched.map((item) => item.key)).toEqual(['sweet_smell', 'windscreen_film']);
+		expect(withComplaint.matched.map((item) => item.key)).toEqual([
+			'sweet_smell',
+			'windscreen_film'
+		]);
 	});
 
 	it('lets an explicit answer or an unknown win over a matched one', async () => {

@@ -56,13 +56,18 @@ describe('validateObservations', () => {
 	it('rejects numbers that are not finite', () => {
 		for (const value of [Number.NaN, Number.POSITIVE_INFINITY]) {
 			expect(validateObservations(rulebook, { loss_l_per_week: value })).toEqual([
-				{ path: 'observations.loss_l_per_week', message: expect.stringContaining('not a finite number') }
+				{
+					path: 'observations.loss_l_per_week',
+					message: expect.stringContaining('not a finite number')
+				}
 			]);
 		}
 	});
 
 	it('does not mistake inherited object members for observations', () => {
-		expect(validateObservations(rulebook, JSON.parse('{"constructor": true, "__proto__": 1}'))).toEqual([
+		expect(
+			validateObservations(rulebook, JSON.parse('{"constructor": true, "__proto__": 1}'))
+		).toEqual([
 			{ path: 'observations.constructor', message: 'unknown observation "constructor"' },
 			{ path: 'observations.__proto__', message: 'unknown observation "__proto__"' }
 		]);
@@ -127,7 +132,9 @@ describe('makeSyntheticRulebook', () => {
 
 	it('makes each copy behave like the base on its own observations', async () => {
 		const base = makeCoolingRulebook();
-		const baseDiagnosis = await createDiagnoser(base).analyse({ observations: { fan_runs_when_hot: false } });
+		const baseDiagnosis = await createDiagnoser(base).analyse({
+			observations: { fan_runs_when_hot: false }
+		});
 		const synthetic = await createDiagnoser(makeSyntheticRulebook(base, 3)).analyse({
 			observations: { fan_runs_when_hot_x2: false }
 		});
@@ -144,7 +151,13 @@ describe('API schemas', () => {
 			observations: { temp_gauge: 'high_at_idle', fan_runs_when_hot: false },
 			unknown: ['fan_circuit_test'],
 			complaint: 'gets hot sitting in traffic, fine on the motorway',
-			vehicle: { year: 2014, make: 'Invented', model: 'Van', engine: '2.0 diesel', odometerKm: 182000 }
+			vehicle: {
+				year: 2014,
+				make: 'Invented',
+				model: 'Van',
+				engine: '2.0 diesel',
+				odometerKm: 182000
+			}
 		});
 		expect(parsed.saveAsCase).toBe(false);
 		expect(diagnoseRequestSchema.parse({}).observations).toEqual({});
@@ -155,7 +168,10 @@ describe('API schemas', () => {
 			[{ vehicle: { vin: '1M8GDM9A1KP042788' } }, 'vehicle.vin'],
 			[{ complaint: 'x'.repeat(2001) }, 'complaint'],
 			[{ observation: { temp_gauge: 'normal' } }, ''],
-			[{ observations: { loss_l_per_week: Number.POSITIVE_INFINITY } }, 'observations.loss_l_per_week'],
+			[
+				{ observations: { loss_l_per_week: Number.POSITIVE_INFINITY } },
+				'observations.loss_l_per_week'
+			],
 			[{ observations: { temp_gauge: ['normal'] } }, 'observations.temp_gauge'],
 			[{ saveAsCase: 'yes' }, 'saveAsCase']
 		];
@@ -185,7 +201,10 @@ describe('API schemas', () => {
 
 	it('converts to JSON Schema for the OpenAPI document, descriptions included', () => {
 		const request = z.toJSONSchema(diagnoseRequestSchema, { io: 'input' }) as {
-			$defs: Record<string, { properties: Record<string, { description?: string; maxLength?: number }> }>;
+			$defs: Record<
+				string,
+				{ properties: Record<string, { description?: string; maxLength?: number }> }
+			>;
 		};
 		const properties = request.$defs.DiagnoseRequest.properties;
 		expect(properties.complaint.maxLength).toBe(2000);

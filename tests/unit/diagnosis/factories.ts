@@ -326,27 +326,39 @@ export function makeCoolingRulebook(): Rulebook {
 			frequencies: { true: 0.5, false: 0.5 }
 		})
 	];
-	const rule = (
-		key: string,
-		cause: string,
-		lr: number,
-		conditions: TopLevelCondition
-	): Rule => makeRule({ key, cause, lr, conditions, rationale: `Fixture rule ${key}.` });
+	const rule = (key: string, cause: string, lr: number, conditions: TopLevelCondition): Rule =>
+		makeRule({ key, cause, lr, conditions, rationale: `Fixture rule ${key}.` });
 	const rules: Rule[] = [
-		rule('fan-off-when-hot', 'cooling_fan_fault', 9, { all: [leaf('fan_runs_when_hot', 'equal', false)] }),
-		rule('fan-runs-when-hot', 'cooling_fan_fault', 0.15, { all: [leaf('fan_runs_when_hot', 'equal', true)] }),
-		rule('hot-at-idle', 'cooling_fan_fault', 3, { all: [leaf('temp_gauge', 'equal', 'high_at_idle')] }),
-		rule('fan-circuit-fault', 'cooling_fan_fault', 25, { all: [leaf('fan_circuit_test', 'equal', 'fault_found')] }),
-		rule('fan-circuit-ok', 'cooling_fan_fault', 0.1, { all: [leaf('fan_circuit_test', 'equal', 'ok')] }),
+		rule('fan-off-when-hot', 'cooling_fan_fault', 9, {
+			all: [leaf('fan_runs_when_hot', 'equal', false)]
+		}),
+		rule('fan-runs-when-hot', 'cooling_fan_fault', 0.15, {
+			all: [leaf('fan_runs_when_hot', 'equal', true)]
+		}),
+		rule('hot-at-idle', 'cooling_fan_fault', 3, {
+			all: [leaf('temp_gauge', 'equal', 'high_at_idle')]
+		}),
+		rule('fan-circuit-fault', 'cooling_fan_fault', 25, {
+			all: [leaf('fan_circuit_test', 'equal', 'fault_found')]
+		}),
+		rule('fan-circuit-ok', 'cooling_fan_fault', 0.1, {
+			all: [leaf('fan_circuit_test', 'equal', 'ok')]
+		}),
 		rule('hot-always-or-at-speed', 'thermostat_stuck_closed', 3, {
 			any: [leaf('temp_gauge', 'in', ['high_always', 'high_at_speed'])]
 		}),
-		rule('gauge-normal-thermostat', 'thermostat_stuck_closed', 0.3, { all: [leaf('temp_gauge', 'equal', 'normal')] }),
+		rule('gauge-normal-thermostat', 'thermostat_stuck_closed', 0.3, {
+			all: [leaf('temp_gauge', 'equal', 'normal')]
+		}),
 		rule('refill-then-cold-heater', 'trapped_air', 8, {
 			all: [leaf('recent_coolant_service', 'equal', true), leaf('heater_output', 'equal', 'cold')]
 		}),
-		rule('recent-refill', 'trapped_air', 3, { all: [leaf('recent_coolant_service', 'equal', true)] }),
-		rule('no-recent-refill', 'trapped_air', 0.3, { all: [leaf('recent_coolant_service', 'equal', false)] }),
+		rule('recent-refill', 'trapped_air', 3, {
+			all: [leaf('recent_coolant_service', 'equal', true)]
+		}),
+		rule('no-recent-refill', 'trapped_air', 0.3, {
+			all: [leaf('recent_coolant_service', 'equal', false)]
+		}),
 		rule('internal-loss-signs', 'head_gasket_breach', 6, {
 			all: [
 				leaf('level_drops_between_checks', 'equal', true),
@@ -371,8 +383,12 @@ export function makeCoolingRulebook(): Rulebook {
 				leaf('sweet_smell', 'equal', 'cabin')
 			]
 		}),
-		rule('no-cabin-smell', 'heater_core_leak', 0.3, { all: [leaf('sweet_smell', 'notEqual', 'cabin')] }),
-		rule('drips-under-car', 'hose_or_clamp_leak', 5, { all: [leaf('puddle_under_vehicle', 'equal', true)] }),
+		rule('no-cabin-smell', 'heater_core_leak', 0.3, {
+			all: [leaf('sweet_smell', 'notEqual', 'cabin')]
+		}),
+		rule('drips-under-car', 'hose_or_clamp_leak', 5, {
+			all: [leaf('puddle_under_vehicle', 'equal', true)]
+		}),
 		rule('external-leak-found', 'hose_or_clamp_leak', 10, {
 			all: [leaf('pressure_test', 'equal', 'drops_external_leak_found')]
 		}),
@@ -383,11 +399,18 @@ export function makeCoolingRulebook(): Rulebook {
 			]
 		}),
 		rule('cap-fails', 'pressure_cap_fault', 20, { all: [leaf('cap_test', 'equal', 'fails')] }),
-		rule('cap-holds', 'pressure_cap_fault', 0.1, { all: [leaf('cap_test', 'equal', 'holds_rating')] }),
-		rule('hot-at-speed-radiator', 'radiator_restricted', 4, {
-			all: [leaf('temp_gauge', 'equal', 'high_at_speed'), leaf('fan_runs_when_hot', 'notEqual', false)]
+		rule('cap-holds', 'pressure_cap_fault', 0.1, {
+			all: [leaf('cap_test', 'equal', 'holds_rating')]
 		}),
-		rule('gauge-normal-radiator', 'radiator_restricted', 0.3, { all: [leaf('temp_gauge', 'equal', 'normal')] })
+		rule('hot-at-speed-radiator', 'radiator_restricted', 4, {
+			all: [
+				leaf('temp_gauge', 'equal', 'high_at_speed'),
+				leaf('fan_runs_when_hot', 'notEqual', false)
+			]
+		}),
+		rule('gauge-normal-radiator', 'radiator_restricted', 0.3, {
+			all: [leaf('temp_gauge', 'equal', 'normal')]
+		})
 	];
 	const tests: ConfirmingTest[] = [
 		makeTest({ key: 'fan_circuit_check', minutes: 15, sets: 'fan_circuit_test' }),
@@ -554,7 +577,11 @@ export function makeRandomRulebook(
 			'notIn'
 		] as const);
 		const value = pick(rng, [0, 5, 10, 20, 7.5]);
-		return leaf(observation.key, operator, operator === 'in' || operator === 'notIn' ? [value, 10] : value);
+		return leaf(
+			observation.key,
+			operator,
+			operator === 'in' || operator === 'notIn' ? [value, 10] : value
+		);
 	};
 	const makeGroup = (depth: number): TopLevelCondition => {
 		const size = 1 + Math.floor(rng() * 3);
@@ -584,7 +611,13 @@ export function makeRandomRulebook(
 			sets: observations[index].key
 		})
 	);
-	return { meta: makeMeta({ name: `Random rulebook ${seed}` }), causes, observations, rules, tests };
+	return {
+		meta: makeMeta({ name: `Random rulebook ${seed}` }),
+		causes,
+		observations,
+		rules,
+		tests
+	};
 }
 
 /** Random answers: each observation answered with probability `answeredShare`, else left out or

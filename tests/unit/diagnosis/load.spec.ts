@@ -9,7 +9,10 @@ import { makeCoolingRulebook } from './factories';
 
 const created: string[] = [];
 
-function writeRulebookDir(rulebook: Rulebook, edit?: (files: Record<string, string>) => void): string {
+function writeRulebookDir(
+	rulebook: Rulebook,
+	edit?: (files: Record<string, string>) => void
+): string {
 	const root = mkdtempSync(join(tmpdir(), 'causeway-rules-'));
 	created.push(root);
 	const dir = join(root, 'rules');

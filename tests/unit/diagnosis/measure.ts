@@ -96,7 +96,9 @@ export async function measureStandardCosts(rulesDir?: string): Promise<Costs[]> 
 	if (rulesDir && existsSync(`${rulesDir}/rules.json`)) {
 		const shipped = loadRulebookFromDir(rulesDir);
 		results.push(await measureCosts('rules/ (shipped)', shipped));
-		results.push(await measureCosts('rules/ synthetic 10x', makeSyntheticRulebook(shipped, 10), 100));
+		results.push(
+			await measureCosts('rules/ synthetic 10x', makeSyntheticRulebook(shipped, 10), 100)
+		);
 	}
 	return results;
 }

@@ -37,7 +37,9 @@ async function bruteForceGain(
 			{ ...input, observations: { ...input.observations, [key]: option.value } },
 			{ evaluator: 'engine' }
 		);
-		expected += option.probability * (entropyNow - sumEntropyBits(after.causes.map((cause) => cause.probability)));
+		expected +=
+			option.probability *
+			(entropyNow - sumEntropyBits(after.causes.map((cause) => cause.probability)));
 	}
 	return expected;
 }
@@ -54,7 +56,9 @@ describe('binaryEntropyBits', () => {
 
 describe('listAnswerOptions', () => {
 	it('takes boolean and enum frequencies, and number bins, normalised to sum to 1', () => {
-		const boolean = listAnswerOptions(makeBooleanObservation({ frequencies: { true: 0.705, false: 0.3 } }));
+		const boolean = listAnswerOptions(
+			makeBooleanObservation({ frequencies: { true: 0.705, false: 0.3 } })
+		);
 		expect(boolean.map((option) => option.value)).toEqual([true, false]);
 		expect(boolean[0].probability + boolean[1].probability).toBeCloseTo(1, 15);
 		expect(boolean[0].probability).toBeCloseTo(0.705 / 1.005, 15);
@@ -66,12 +70,16 @@ describe('listAnswerOptions', () => {
 	});
 
 	it('lets a shop override replace the rulebook frequencies, missing values counting 0', () => {
-		const options = listAnswerOptions(makeBooleanObservation(), { fan_runs_when_hot: { false: 2 } });
+		const options = listAnswerOptions(makeBooleanObservation(), {
+			fan_runs_when_hot: { false: 2 }
+		});
 		expect(options).toEqual([
 			{ value: true, probability: 0 },
 			{ value: false, probability: 1 }
 		]);
-		const bins = listAnswerOptions(makeNumberObservation(), { loss_l_per_week: { '0': 1, '2': 3 } });
+		const bins = listAnswerOptions(makeNumberObservation(), {
+			loss_l_per_week: { '0': 1, '2': 3 }
+		});
 		expect(bins.map((option) => option.probability)).toEqual([0.25, 0, 0.75]);
 	});
 });
@@ -96,7 +104,9 @@ describe('next questions', () => {
 	it('leaves out observations answered through the complaint', async () => {
 		const diagnoser = createDiagnoser(makeCoolingRulebook());
 		const diagnosis = await diagnoser.diagnose({ observations: {}, complaint: 'windows fog up' });
-		expect(diagnosis.nextQuestions.map((question) => question.key)).not.toContain('windscreen_film');
+		expect(diagnosis.nextQuestions.map((question) => question.key)).not.toContain(
+			'windscreen_film'
+		);
 	});
 
 	it('orders by expected gain, highest first, then by key, with gains rounded to 4 decimals', async () => {
@@ -108,7 +118,9 @@ describe('next questions', () => {
 			});
 			for (let index = 1; index < nextQuestions.length; index++) {
 				const [a, b] = [nextQuestions[index - 1], nextQuestions[index]];
-				expect(a.expectedGain > b.expectedGain || (a.expectedGain === b.expectedGain && a.key < b.key)).toBe(true);
+				expect(
+					a.expectedGain > b.expectedGain || (a.expectedGain === b.expectedGain && a.key < b.key)
+				).toBe(true);
 			}
 			for (const question of nextQuestions) {
 				expect(Math.round(question.expectedGain * 1e4) / 1e4).toBe(question.expectedGain);
@@ -136,23 +148,30 @@ describe('next questions', () => {
 	it('gives gain 0 to a question whose answers cannot change any cause', async () => {
 		const diagnoser = createDiagnoser(makeCoolingRulebook());
 		const gainOf = async (input: DiagnoseInput, key: string) =>
-			(await diagnoser.analyse(input)).nextQuestions.find((question) => question.key === key)?.expectedGain;
+			(await diagnoser.analyse(input)).nextQuestions.find((question) => question.key === key)
+				?.expectedGain;
 		// No rule mentions the wiper blades.
 		expect(await gainOf({ observations: {} }, 'wiper_blades_worn')).toBe(0);
 		// The only heater rule also needs a recent refill, which is unanswered, then answered "no".
 		expect(await gainOf({ observations: {} }, 'heater_output')).toBe(0);
-		expect(await gainOf({ observations: { recent_coolant_service: false } }, 'heater_output')).toBe(0);
+		expect(await gainOf({ observations: { recent_coolant_service: false } }, 'heater_output')).toBe(
+			0
+		);
 		// The film only matters inside a rule the cabin smell already fires.
 		expect(await gainOf({ observations: { sweet_smell: 'cabin' } }, 'windscreen_film')).toBe(0);
 		// Control: once a refill is known, the heater question does move a cause.
-		expect(await gainOf({ observations: { recent_coolant_service: true } }, 'heater_output')).not.toBe(0);
+		expect(
+			await gainOf({ observations: { recent_coolant_service: true } }, 'heater_output')
+		).not.toBe(0);
 	});
 
 	it('equals a brute-force recomputation (full diagnosis per answer) within 1e-9', async () => {
 		let compared = 0;
 		let nonZero = 0;
 		for (const seed of [61, 62]) {
-			const diagnoser = createDiagnoser(makeRandomRulebook(seed, { causes: 8, observations: 15, rules: 40, tests: 3 }));
+			const diagnoser = createDiagnoser(
+				makeRandomRulebook(seed, { causes: 8, observations: 15, rules: 40, tests: 3 })
+			);
 			const rng = createRng(seed);
 			for (let run = 0; run < 8; run++) {
 				const input = {
@@ -182,8 +201,11 @@ describe('next questions', () => {
 		const plain = await diagnoser.analyse(input);
 		const overridden = await diagnoser.analyse(input, { frequencies });
 		for (const key of ['fan_runs_when_hot', 'cap_test']) {
-			const gain = overridden.nextQuestions.find((question) => question.key === key)?.expectedGain as number;
-			expect(Math.abs(gain - (await bruteForceGain(diagnoser, input, key, frequencies)))).toBeLessThan(1e-9);
+			const gain = overridden.nextQuestions.find((question) => question.key === key)
+				?.expectedGain as number;
+			expect(
+				Math.abs(gain - (await bruteForceGain(diagnoser, input, key, frequencies)))
+			).toBeLessThan(1e-9);
 			expect(gain).not.toBeCloseTo(
 				plain.nextQuestions.find((question) => question.key === key)?.expectedGain as number,
 				4
@@ -196,11 +218,17 @@ describe('next questions', () => {
 
 	it('handles number observations through their bins', async () => {
 		const diagnoser = createDiagnoser(makeCoolingRulebook());
-		const input: DiagnoseInput = { observations: { puddle_under_vehicle: false as ObservationValue } };
+		const input: DiagnoseInput = {
+			observations: { puddle_under_vehicle: false as ObservationValue }
+		};
 		const { nextQuestions } = await diagnoser.analyse(input);
 		const loss = nextQuestions.find((question) => question.key === 'loss_l_per_week');
 		// The cap rule needs ≥ 0.5 L/week with no drips: two of the three bins fire it.
 		expect(loss?.expectedGain).not.toBe(0);
-		expect(Math.abs((loss?.expectedGain as number) - (await bruteForceGain(diagnoser, input, 'loss_l_per_week')))).toBeLessThan(1e-9);
+		expect(
+			Math.abs(
+				(loss?.expectedGain as number) - (await bruteForceGain(diagnoser, input, 'loss_l_per_week'))
+			)
+		).toBeLessThan(1e-9);
 	});
 });

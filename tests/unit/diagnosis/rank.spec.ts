@@ -34,9 +34,13 @@ describe('ranking with no evidence', () => {
 			const rulebook = makeRandomRulebook(seed);
 			const diagnoser = createDiagnoser(rulebook);
 			const observations = Object.fromEntries(rulebook.observations.map((obs) => [obs.key, null]));
-			const analysis = await diagnoser.analyse({ observations, unknown: [rulebook.observations[0].key] });
+			const analysis = await diagnoser.analyse({
+				observations,
+				unknown: [rulebook.observations[0].key]
+			});
 			const priors = new Map(rulebook.causes.map((cause) => [cause.key, cause.prior]));
-			for (const cause of analysis.causes) expect(cause.probability).toBeCloseTo(priors.get(cause.key) as number, 12);
+			for (const cause of analysis.causes)
+				expect(cause.probability).toBeCloseTo(priors.get(cause.key) as number, 12);
 		}
 	});
 });
@@ -48,7 +52,8 @@ describe('ranking with all-normal answers', () => {
 		expect(diagnosis.causes.filter((cause) => cause.band === 'likely')).toEqual([]);
 		// And the healthy answers argue against causes rather than for them.
 		for (const cause of diagnosis.causes) {
-			const prior = diagnoser.rulebook.causes.find((entry) => entry.key === cause.key)?.prior as number;
+			const prior = diagnoser.rulebook.causes.find((entry) => entry.key === cause.key)
+				?.prior as number;
 			expect(cause.probability).toBeLessThanOrEqual(prior);
 		}
 	});
@@ -77,8 +82,18 @@ describe('posterior arithmetic', () => {
 		const fan = analysis.causes.find((cause) => cause.key === 'cooling_fan_fault');
 		// lr 0.1 (|ln| = 2.30) outweighs lr 3 (|ln| = 1.10).
 		expect(fan?.evidence).toEqual([
-			{ rule: 'fan-circuit-ok', lr: 0.1, because: 'Fixture rule fan-circuit-ok.', source: 'common practice, no source' },
-			{ rule: 'hot-at-idle', lr: 3, because: 'Fixture rule hot-at-idle.', source: 'common practice, no source' }
+			{
+				rule: 'fan-circuit-ok',
+				lr: 0.1,
+				because: 'Fixture rule fan-circuit-ok.',
+				source: 'common practice, no source'
+			},
+			{
+				rule: 'hot-at-idle',
+				lr: 3,
+				because: 'Fixture rule hot-at-idle.',
+				source: 'common practice, no source'
+			}
 		]);
 	});
 
@@ -97,12 +112,18 @@ describe('posterior arithmetic', () => {
 					key: 'circuit-fault',
 					cause: 'mid_fault',
 					lr: 3,
-					conditions: { all: [{ fact: 'fan_circuit_test', operator: 'equal', value: 'fault_found' }] }
+					conditions: {
+						all: [{ fact: 'fan_circuit_test', operator: 'equal', value: 'fault_found' }]
+					}
 				})
 			]
 		});
 		const diagnosis = await createDiagnoser(rulebook).diagnose({ observations: {} });
-		expect(diagnosis.causes.map((cause) => cause.key)).toEqual(['alpha_fault', 'mid_fault', 'zeta_fault']);
+		expect(diagnosis.causes.map((cause) => cause.key)).toEqual([
+			'alpha_fault',
+			'mid_fault',
+			'zeta_fault'
+		]);
 	});
 
 	it('assigns bands at the rulebook thresholds, inclusive', () => {
@@ -141,7 +162,8 @@ describe('monotonicity', () => {
 				expect(after.firedRules).toEqual(expect.arrayContaining(before.firedRules));
 				const added = after.firedRules.filter((key) => !before.firedRules.includes(key));
 				for (const cause of after.causes) {
-					const previous = before.causes.find((entry) => entry.key === cause.key)?.probability as number;
+					const previous = before.causes.find((entry) => entry.key === cause.key)
+						?.probability as number;
 					const lrs = added
 						.map((key) => rulesByKey.get(key))
 						.filter((rule) => rule?.cause === cause.key)
@@ -173,7 +195,8 @@ describe('monotonicity', () => {
 		for (const step of steps) {
 			observations = { ...observations, ...step };
 			const analysis = await diagnoser.analyse({ observations });
-			const fan = analysis.causes.find((cause) => cause.key === 'cooling_fan_fault')?.probability as number;
+			const fan = analysis.causes.find((cause) => cause.key === 'cooling_fan_fault')
+				?.probability as number;
 			expect(fan).toBeGreaterThan(previous);
 			previous = fan;
 		}

@@ -10,10 +10,13 @@ import {
 	makeTest
 } from './factories';
 
-type Mutation = (rulebook: Record<string, any>) => void;
+// Mutations write invalid shapes on purpose, which no precise type would allow.
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+type LooseRulebook = Record<string, any>;
+type Mutation = (rulebook: LooseRulebook) => void;
 
 function expectIssue(mutate: Mutation, path: string, messagePart: string | RegExp) {
-	const rulebook = structuredClone(makeRulebook()) as Record<string, any>;
+	const rulebook = structuredClone(makeRulebook()) as LooseRulebook;
 	mutate(rulebook);
 	const result = parseRulebook(rulebook);
 	expect(result.ok).toBe(false);
@@ -27,11 +30,12 @@ describe('rulebookSchema', () => {
 	it('accepts the small fixture, the cooling fixture and random rulebooks', () => {
 		expect(parseRulebook(makeRulebook())).toMatchObject({ ok: true });
 		expect(parseRulebook(makeCoolingRulebook())).toMatchObject({ ok: true });
-		for (const seed of [1, 2, 3]) expect(parseRulebook(makeRandomRulebook(seed))).toMatchObject({ ok: true });
+		for (const seed of [1, 2, 3])
+			expect(parseRulebook(makeRandomRulebook(seed))).toMatchObject({ ok: true });
 	});
 
 	it('fills defaults for optional lists', () => {
-		const rulebook = structuredClone(makeRulebook()) as Record<string, any>;
+		const rulebook = structuredClone(makeRulebook()) as LooseRulebook;
 		delete rulebook.causes[0].cautions;
 		delete rulebook.observations[0].phrases;
 		const result = parseRulebook(rulebook);
@@ -141,7 +145,9 @@ describe('rulebookSchema', () => {
 		);
 		expectIssue(
 			(rb) =>
-				(rb.rules[0].conditions = { not: { fact: 'fan_runs_when_hot', operator: 'equal', value: true } }),
+				(rb.rules[0].conditions = {
+					not: { fact: 'fan_runs_when_hot', operator: 'equal', value: true }
+				}),
 			'rules[0].conditions.not',
 			'"not" is not allowed'
 		);
@@ -149,7 +155,8 @@ describe('rulebookSchema', () => {
 
 	it('rejects a bare leaf as the top-level condition and nesting deeper than three', () => {
 		expectIssue(
-			(rb) => (rb.rules[0].conditions = { fact: 'fan_runs_when_hot', operator: 'equal', value: false }),
+			(rb) =>
+				(rb.rules[0].conditions = { fact: 'fan_runs_when_hot', operator: 'equal', value: false }),
 			'rules[0].conditions',
 			'"all"'
 		);
@@ -185,7 +192,11 @@ describe('rulebookSchema', () => {
 	});
 
 	it('rejects a test that sets an unknown observation', () => {
-		expectIssue((rb) => (rb.tests[0].sets = 'fan_relay_test'), 'tests[0].sets', 'unknown observation');
+		expectIssue(
+			(rb) => (rb.tests[0].sets = 'fan_relay_test'),
+			'tests[0].sets',
+			'unknown observation'
+		);
 	});
 
 	it('rejects a test_result observation no test sets', () => {
@@ -193,7 +204,11 @@ describe('rulebookSchema', () => {
 	});
 
 	it('rejects a rule for an unknown cause', () => {
-		expectIssue((rb) => (rb.rules[3].cause = 'gremlins'), 'rules[3].cause', 'unknown cause "gremlins"');
+		expectIssue(
+			(rb) => (rb.rules[3].cause = 'gremlins'),
+			'rules[3].cause',
+			'unknown cause "gremlins"'
+		);
 	});
 
 	it('rejects duplicate keys of causes, observations, rules, tests and enum values', () => {
@@ -214,13 +229,19 @@ describe('rulebookSchema', () => {
 
 	it('rejects a cause that no rule supports', () => {
 		expectIssue(
-			(rb) => (rb.rules = rb.rules.filter((rule: { cause: string }) => rule.cause !== 'thermostat_stuck_closed')),
+			(rb) =>
+				(rb.rules = rb.rules.filter(
+					(rule: { cause: string }) => rule.cause !== 'thermostat_stuck_closed'
+				)),
 			'causes[1].key',
 			'no rule supports cause "thermostat_stuck_closed"'
 		);
 		// Only arguing-against rules still leave the cause unsupported.
 		expectIssue(
-			(rb) => (rb.rules = rb.rules.filter((rule: { key: string }) => rule.key !== 'hot-at-speed-not-idle')),
+			(rb) =>
+				(rb.rules = rb.rules.filter(
+					(rule: { key: string }) => rule.key !== 'hot-at-speed-not-idle'
+				)),
 			'causes[1].key',
 			'no rule supports'
 		);
@@ -238,7 +259,13 @@ describe('rulebookSchema', () => {
 			'frequency of "high_at_speed" is missing'
 		);
 		expectIssue(
-			(rb) => (rb.observations[1].frequencies = { normal: 0.4, high_at_idle: 0.35, high_at_speed: 0.2, hot: 0.05 }),
+			(rb) =>
+				(rb.observations[1].frequencies = {
+					normal: 0.4,
+					high_at_idle: 0.35,
+					high_at_speed: 0.2,
+					hot: 0.05
+				}),
 			'observations[1].frequencies.hot',
 			'not a value'
 		);
@@ -306,7 +333,7 @@ describe('rulebookSchema', () => {
 	});
 
 	it('reports several issues at once, each with its own path', () => {
-		const rulebook = structuredClone(makeRulebook()) as Record<string, any>;
+		const rulebook = structuredClone(makeRulebook()) as LooseRulebook;
 		rulebook.rules[0].conditions.all[0].fact = 'nope';
 		rulebook.rules[3].conditions.all[0].value = 'hot';
 		rulebook.tests[0].sets = 'missing';

@@ -25,14 +25,19 @@ describe('test plan', () => {
 				});
 				const probability = new Map(analysis.causes.map((cause) => [cause.key, cause.probability]));
 				const scores = analysis.tests.map(
-					(test) => test.targets.reduce((sum, key) => sum + (probability.get(key) as number), 0) / test.minutes
+					(test) =>
+						test.targets.reduce((sum, key) => sum + (probability.get(key) as number), 0) /
+						test.minutes
 				);
 				analysis.tests.forEach((test, index) => {
 					expect(test.priority).toBe(index + 1);
 					expect(test.score).toBeCloseTo(scores[index], 12);
 					if (index > 0) {
 						const previous = analysis.tests[index - 1];
-						expect(scores[index - 1] > scores[index] || (scores[index - 1] === scores[index] && previous.key < test.key)).toBe(true);
+						expect(
+							scores[index - 1] > scores[index] ||
+								(scores[index - 1] === scores[index] && previous.key < test.key)
+						).toBe(true);
 					}
 				});
 			}
@@ -46,9 +51,14 @@ describe('test plan', () => {
 		const order = quiet.tests.map((test) => test.key);
 		expect(order.indexOf('cap_check')).toBeLessThan(order.indexOf('combustion_gas_check'));
 		const suspicious = await diagnoser.analyse({
-			observations: { exhaust_smoke: 'white_persistent', level_drops_between_checks: true, puddle_under_vehicle: false }
+			observations: {
+				exhaust_smoke: 'white_persistent',
+				level_drops_between_checks: true,
+				puddle_under_vehicle: false
+			}
 		});
-		const gasket = suspicious.causes.find((cause) => cause.key === 'head_gasket_breach')?.probability as number;
+		const gasket = suspicious.causes.find((cause) => cause.key === 'head_gasket_breach')
+			?.probability as number;
 		// Hand-worked: odds 0.05/0.95 × 6 × 4 = 1.263; p = 0.558; 0.558 / 25 min = 0.0223 per minute.
 		expect(gasket).toBeCloseTo(1.2631578947 / 2.2631578947, 8);
 		expect(suspicious.tests[0].key).toBe('pressure_test_system');
@@ -62,7 +72,10 @@ describe('test plan', () => {
 			observations: { cap_test: 'holds_rating', pressure_test: null },
 			unknown: ['combustion_gas_test']
 		});
-		expect(tests.map((test) => test.key).sort()).toEqual(['fan_circuit_check', 'pressure_test_system']);
+		expect(tests.map((test) => test.key).sort()).toEqual([
+			'fan_circuit_check',
+			'pressure_test_system'
+		]);
 	});
 
 	it('returns what a technician needs to run the test', async () => {
@@ -85,12 +98,20 @@ describe('cautions of a diagnosis', () => {
 		const diagnoser = createDiagnoser(makeCoolingRulebook());
 		const quiet = await diagnoser.diagnose({ observations: {} });
 		expect(quiet.cautions[0]).toBe('Let the engine cool before opening the cooling system.');
-		expect(quiet.cautions).not.toContain('Do not keep driving an engine that is pushing coolant out.');
+		expect(quiet.cautions).not.toContain(
+			'Do not keep driving an engine that is pushing coolant out.'
+		);
 		const suspicious = await diagnoser.diagnose({
-			observations: { exhaust_smoke: 'white_persistent', level_drops_between_checks: true, puddle_under_vehicle: false }
+			observations: {
+				exhaust_smoke: 'white_persistent',
+				level_drops_between_checks: true,
+				puddle_under_vehicle: false
+			}
 		});
 		expect(suspicious.causes[0]).toMatchObject({ key: 'head_gasket_breach', band: 'likely' });
-		expect(suspicious.cautions).toContain('Do not keep driving an engine that is pushing coolant out.');
+		expect(suspicious.cautions).toContain(
+			'Do not keep driving an engine that is pushing coolant out.'
+		);
 		for (const test of suspicious.tests.slice(0, 3)) {
 			for (const caution of test.cautions) expect(suspicious.cautions).toContain(caution);
 		}

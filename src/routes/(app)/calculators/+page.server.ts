@@ -33,7 +33,10 @@ export const load: PageServerLoad = async (event) => {
 	return {
 		defaults: createFormDefaults(today, intervals),
 		titles: Object.fromEntries(
-			Object.values(calculators).map((c) => [c.name, { title: c.title, description: c.description }])
+			Object.values(calculators).map((c) => [
+				c.name,
+				{ title: c.title, description: c.description }
+			])
 		),
 		freezeCurves,
 		conversionUnitGroups,
@@ -55,16 +58,26 @@ function createCalculatorAction(form: CalculatorForm): Action {
 		const calculator = form.calculator;
 		const { input, errors } = form.toInput(values);
 		if (Object.keys(errors).length > 0) {
-			return fail(400, { calculator, message: 'Please correct the marked fields.', errors, values });
+			return fail(400, {
+				calculator,
+				message: 'Please correct the marked fields.',
+				errors,
+				values
+			});
 		}
 		try {
 			const result = await runCalculatorForShop(user.shopId, calculator, input);
 			return { calculator, values, result, ...form.present(result, values) };
 		} catch (error) {
 			if (!(error instanceof AppError) || error.code !== 'invalid_request') throw error;
-			const placed = placeIssues(form, error.options.issues ?? [{ path: '', message: error.message }]);
+			const placed = placeIssues(
+				form,
+				error.options.issues ?? [{ path: '', message: error.message }]
+			);
 			const message =
-				placed.unplaced.length > 0 ? placed.unplaced.join(' ') : 'Please correct the marked fields.';
+				placed.unplaced.length > 0
+					? placed.unplaced.join(' ')
+					: 'Please correct the marked fields.';
 			return fail(400, { calculator, message, errors: placed.errors, values });
 		}
 	};

@@ -40,6 +40,8 @@ export type DisplayRow = {
 	text: string;
 	/** The same value in the other common unit. */
 	also?: string;
+	/** Marks a status that needs attention. */
+	tone?: 'ok' | 'caution' | 'alarm';
 };
 
 export type FreezeMarker = { percent: number; freezePointC: number; label: string };
@@ -157,7 +159,10 @@ function showTemperature(
 function showVolume(litres: Quantity, unit: VolumeUnit): Pick<DisplayRow, 'text' | 'also'> {
 	const inLitres = `${formatNumber(litres.value, 2)} L`;
 	if (unit === 'L') return { text: inLitres };
-	return { text: `${formatNumber(convertVolume(litres.value, 'L', unit), 2)} ${unit}`, also: inLitres };
+	return {
+		text: `${formatNumber(convertVolume(litres.value, 'L', unit), 2)} ${unit}`,
+		also: inLitres
+	};
 }
 
 const show = (quantity: Quantity, decimals = 2) =>
@@ -405,7 +410,11 @@ export const drainAndFillForm: CalculatorForm = {
 		}
 		if (v.cyclesNeeded && v.freshAfterCyclesNeeded) {
 			rows.push(
-				{ key: 'cyclesNeeded', label: 'Cycles needed for the target', text: show(v.cyclesNeeded, 0) },
+				{
+					key: 'cyclesNeeded',
+					label: 'Cycles needed for the target',
+					text: show(v.cyclesNeeded, 0)
+				},
 				{
 					key: 'freshAfterCyclesNeeded',
 					label: 'Fresh coolant after those cycles',
@@ -498,7 +507,11 @@ export const boilingPointForm: CalculatorForm = {
 		const low = showTemperature(v.boilingPointIfCapOpensLow, unit, 1);
 		const high = showTemperature(v.boilingPointIfCapOpensHigh, unit, 1);
 		const rows: DisplayRow[] = [
-			{ key: 'boilingPoint', label: 'Boils at, cap holding', ...showTemperature(v.boilingPoint, unit) }
+			{
+				key: 'boilingPoint',
+				label: 'Boils at, cap holding',
+				...showTemperature(v.boilingPoint, unit)
+			}
 		];
 		if (v.glycolMassPercent) {
 			rows.push({
@@ -523,14 +536,30 @@ export const boilingPointForm: CalculatorForm = {
 						? undefined
 						: `${formatNumber(convertPressure(v.capGauge.value, 'kPa', capUnit), 2)} ${capUnit}`
 			},
-			{ key: 'atmosphericPressure', label: 'Air pressure at this altitude', text: show(v.atmosphericPressure) },
-			{ key: 'absolutePressure', label: 'Absolute pressure in the system', text: show(v.absolutePressure) }
+			{
+				key: 'atmosphericPressure',
+				label: 'Air pressure at this altitude',
+				text: show(v.atmosphericPressure)
+			},
+			{
+				key: 'absolutePressure',
+				label: 'Absolute pressure in the system',
+				text: show(v.absolutePressure)
+			}
 		);
 		if (v.glycolMassPercent) {
-			rows.push({ key: 'glycolMassPercent', label: 'Glycol by mass', text: show(v.glycolMassPercent, 1) });
+			rows.push({
+				key: 'glycolMassPercent',
+				label: 'Glycol by mass',
+				text: show(v.glycolMassPercent, 1)
+			});
 		}
 		if (v.waterMoleFraction) {
-			rows.push({ key: 'waterMoleFraction', label: 'Water mole fraction', text: show(v.waterMoleFraction, 4) });
+			rows.push({
+				key: 'waterMoleFraction',
+				label: 'Water mole fraction',
+				text: show(v.waterMoleFraction, 4)
+			});
 		}
 		return { rows };
 	}
@@ -555,6 +584,12 @@ const statusLabels: Record<ServiceIntervalValues['status'], string> = {
 	ok: 'Not due yet',
 	due_soon: 'Due soon',
 	overdue: 'Overdue'
+};
+
+const statusTones: Record<ServiceIntervalValues['status'], DisplayRow['tone']> = {
+	ok: 'ok',
+	due_soon: 'caution',
+	overdue: 'alarm'
 };
 
 const firstLimitLabels: Record<ServiceIntervalValues['firstLimit'], string> = {
@@ -611,15 +646,31 @@ export const serviceIntervalForm: CalculatorForm = {
 	present(result) {
 		const v = result.values as ServiceIntervalValues;
 		const rows: DisplayRow[] = [
-			{ key: 'status', label: 'Status', text: statusLabels[v.status] },
+			{ key: 'status', label: 'Status', text: statusLabels[v.status], tone: statusTones[v.status] },
 			{ key: 'dueDate', label: 'Due by', text: v.dueDate, also: firstLimitLabels[v.firstLimit] },
 			{ key: 'dueOdometer', label: 'Due at', text: show(v.dueOdometer, 0) },
-			{ key: 'daysRemaining', label: 'Time left', text: show(v.daysRemaining, 0) },
-			{ key: 'kmRemaining', label: 'Distance left', text: show(v.kmRemaining, 0) },
+			v.daysRemaining.value < 0
+				? {
+						key: 'daysRemaining',
+						label: 'Past the due date by',
+						text: show({ ...v.daysRemaining, value: -v.daysRemaining.value }, 0)
+					}
+				: { key: 'daysRemaining', label: 'Time left', text: show(v.daysRemaining, 0) },
+			v.kmRemaining.value < 0
+				? {
+						key: 'kmRemaining',
+						label: 'Past the distance limit by',
+						text: show({ ...v.kmRemaining, value: -v.kmRemaining.value }, 0)
+					}
+				: { key: 'kmRemaining', label: 'Distance left', text: show(v.kmRemaining, 0) },
 			{ key: 'timeDueDate', label: 'Time limit', text: v.timeDueDate }
 		];
 		if (v.distanceDueDate) {
-			rows.push({ key: 'distanceDueDate', label: 'Distance limit (projected)', text: v.distanceDueDate });
+			rows.push({
+				key: 'distanceDueDate',
+				label: 'Distance limit (projected)',
+				text: v.distanceDueDate
+			});
 		}
 		if (v.averageDistance) {
 			rows.push({ key: 'averageDistance', label: 'Average use', text: show(v.averageDistance, 1) });
