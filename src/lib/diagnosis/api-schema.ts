@@ -99,12 +99,9 @@ export const evidenceSchema = z
 				'Likelihood ratio of the rule: above 1 supports the cause, below 1 argues against it.'
 		}),
 		because: z.string().meta({ description: 'The rule’s rationale.' }),
-		source: z
-			.string()
-			.optional()
-			.meta({
-				description: 'Where the rule’s reasoning was published, or "common practice, no source".'
-			})
+		source: z.string().optional().meta({
+			description: 'Where the rule’s reasoning was published, or "common practice, no source".'
+		})
 	})
 	.meta({ id: 'Evidence' });
 

@@ -142,22 +142,8 @@ function measureEditDistance(a: string, b: string): number {
 	return previous[b.length];
 }
 
-/**
- * 1 for the same word or the same stem; a typo's similarity for a word the phrases do not use
- * themselves ("trafic" for "traffic"); 0 otherwise. A word the phrases know is taken as meant,
- * so "dripping" never reads as "dropping", nor "seam" as "steam".
- */
-function measureWordSimilarity(
-	phraseWord: string,
-	word: string,
-	lexicon: ReadonlySet<string>
-): number {
-	if (phraseWord === word || stemWord(phraseWord) === stemWord(word)) return 1;
-	if (lexicon.has(word) || lexicon.has(stemWord(word))) return 0;
-	if (Math.min(phraseWord.length, word.length) < MIN_FUZZY_WORD_LENGTH) return 0;
-	const similarity =
-		1 - measureEditDistance(phraseWord, word) / Math.max(phraseWord.length, word.length);
-	return similarity >= MIN_WORD_SIMILARITY ? similarity : 0;
+function measureTypoSimilarity(a: string, b: string): number {
+	return 1 - measureEditDistance(a, b) / Math.max(a.length, b.length);
 }
 
 function weighWord(word: string): number {
@@ -168,23 +154,32 @@ interface PhraseEntry {
 	key: string;
 	kind: Observation['kind'];
 	value: ObservationValue;
-	text: string;
 	/** Phrase words without negations; the phrase's own negation is kept in `negated`. */
 	words: string[];
+	stems: string[];
 	weights: number[];
 	totalWeight: number;
 	negated: boolean;
 	conjunctions: Set<string>;
 }
 
+/** For one complaint word: the phrase content words it may stand for, with their similarity. */
+type WordReading = ReadonlyMap<string, number>;
+const NO_READING: WordReading = new Map();
+/** Readings of words the phrases do not use are kept per edition, up to this many. */
+const MAX_CACHED_READINGS = 10_000;
+
 export interface ComplaintMatcher {
 	matchComplaint(complaint: string, skip?: ReadonlySet<string>): ComplaintMatch[];
 }
 
 /**
- * Built once per edition. fuse.js (token search) finds the phrases that share words with each
- * stretch of the complaint; each candidate is then scored against word windows of that stretch
- * by weighted word overlap that favours covering the whole phrase.
+ * Built once per edition. Each complaint word is read as the phrase words it stands for: the
+ * same word or stem, or, for a word the phrases do not use, a close misspelling found by fuse.js
+ * over the phrases' vocabulary ("trafic" for "traffic"). A word the phrases know is taken as
+ * meant, so "dripping" never reads as "dropping". Phrases that share a content word with a
+ * stretch of the complaint are then scored on word windows of that stretch, by weighted word
+ * overlap that favours covering the whole phrase.
  */
 export function buildComplaintMatcher(rulebook: Rulebook): ComplaintMatcher {
 	const entries: PhraseEntry[] = [];
@@ -198,8 +193,8 @@ export function buildComplaintMatcher(rulebook: Rulebook): ComplaintMatcher {
 				key: observation.key,
 				kind: observation.kind,
 				value: phrase.value,
-				text: phrase.text,
 				words,
+				stems: words.map(stemWord),
 				weights,
 				totalWeight: weights.reduce((sum, weight) => sum + weight, 0),
 				negated: tokens.some((word) => NEGATIONS.has(word)),
@@ -207,28 +202,82 @@ export function buildComplaintMatcher(rulebook: Rulebook): ComplaintMatcher {
 			});
 		}
 	}
-	const lexicon = new Set(
-		entries.flatMap((entry) => entry.words.flatMap((word) => [word, stemWord(word)]))
-	);
-	const fuse = new Fuse(entries, {
-		keys: ['text'],
-		useTokenSearch: true,
-		ignoreLocation: true,
-		includeScore: true,
-		threshold: 0.4
+
+	// Content words of the phrases, by stem, and the phrases that use each.
+	const wordsByStem = new Map<string, string[]>();
+	const entriesByWord = new Map<string, number[]>();
+	const knownStems = new Set<string>();
+	entries.forEach((entry, entryIndex) => {
+		entry.words.forEach((word, wordIndex) => {
+			knownStems.add(entry.stems[wordIndex]);
+			if (LITTLE_WORDS.has(word) || CONJUNCTIONS.has(word)) return;
+			const stem = entry.stems[wordIndex];
+			const sameStem = wordsByStem.get(stem) ?? [];
+			if (!sameStem.includes(word)) sameStem.push(word);
+			wordsByStem.set(stem, sameStem);
+			const users = entriesByWord.get(word) ?? [];
+			if (users[users.length - 1] !== entryIndex) users.push(entryIndex);
+			entriesByWord.set(word, users);
+		});
 	});
+	const vocabulary = new Fuse([...entriesByWord.keys()], {
+		includeScore: true,
+		ignoreLocation: true,
+		threshold: 0.35
+	});
+	const cachedReadings = new Map<string, WordReading>();
+
+	function readWord(word: string): WordReading {
+		if (NEGATIONS.has(word) || CONJUNCTIONS.has(word) || LITTLE_WORDS.has(word)) return NO_READING;
+		const stem = stemWord(word);
+		const sameStem = wordsByStem.get(stem);
+		if (sameStem) return new Map(sameStem.map((known) => [known, 1]));
+		if (knownStems.has(stem) || word.length < MIN_FUZZY_WORD_LENGTH) return NO_READING;
+		const cached = cachedReadings.get(word);
+		if (cached) return cached;
+		const reading = new Map<string, number>();
+		for (const result of vocabulary.search(word)) {
+			const known = result.item;
+			if (known.length < MIN_FUZZY_WORD_LENGTH) continue;
+			const similarity = measureTypoSimilarity(word, known);
+			if (similarity >= MIN_WORD_SIMILARITY) reading.set(known, similarity);
+		}
+		if (cachedReadings.size >= MAX_CACHED_READINGS) cachedReadings.clear();
+		cachedReadings.set(word, reading);
+		return reading;
+	}
 
 	return {
 		matchComplaint(complaint, skip = new Set()) {
 			const text = complaint.slice(0, MAX_COMPLAINT_CHARS);
 			const best = new Map<string, ComplaintMatch & { position: number }>();
+			const readings = new Map<string, WordReading>();
+			const readCached = (word: string) => {
+				let reading = readings.get(word);
+				if (!reading) {
+					reading = readWord(word);
+					readings.set(word, reading);
+				}
+				return reading;
+			};
 			for (const segment of splitSegments(text)) {
-				const candidates = fuse
-					.search(segment.tokens.map((token) => token.word).join(' '))
-					.map((result) => result.item);
-				for (const entry of candidates) {
+				const segmentReadings = segment.tokens.map((token) => readCached(token.word));
+				// Tokens read as a misspelling of some other phrase word (not by their own stem).
+				const typoTokenIndices = segment.tokens.flatMap((token, index) =>
+					[...segmentReadings[index].keys()].some((known) => stemWord(known) !== token.stem)
+						? [index]
+						: []
+				);
+				const candidates = new Set<number>();
+				for (const reading of segmentReadings) {
+					for (const known of reading.keys()) {
+						for (const entryIndex of entriesByWord.get(known) ?? []) candidates.add(entryIndex);
+					}
+				}
+				for (const entryIndex of [...candidates].sort((a, b) => a - b)) {
+					const entry = entries[entryIndex];
 					if (skip.has(entry.key)) continue;
-					const found = findBestWindow(entry, segment, lexicon);
+					const found = findBestWindow(entry, segment, segmentReadings, typoTokenIndices);
 					if (!found) continue;
 					const windowNegated = found.negatedFrom !== null;
 					let value = entry.value;
@@ -264,8 +313,13 @@ export function buildComplaintMatcher(rulebook: Rulebook): ComplaintMatcher {
 	};
 }
 
+interface SegmentToken extends Token {
+	stem: string;
+}
+
 interface Segment {
-	tokens: Token[];
+	tokens: SegmentToken[];
+	tokenIndicesByStem: Map<string, number[]>;
 	/** Index of the first token of the clause each token belongs to (clauses end at and/but). */
 	clauseStart: number[];
 }
@@ -277,17 +331,22 @@ function splitSegments(text: string): Segment[] {
 		const offset = part.index;
 		const tokens = tokenize(part[0]).map((token) => ({
 			word: token.word,
+			stem: stemWord(token.word),
 			start: token.start + offset,
 			end: token.end + offset
 		}));
 		if (tokens.length === 0) continue;
 		const clauseStart: number[] = [];
+		const tokenIndicesByStem = new Map<string, number[]>();
 		let start = 0;
 		tokens.forEach((token, index) => {
 			if (CONJUNCTIONS.has(token.word)) start = index + 1;
 			clauseStart.push(start);
+			const sameStem = tokenIndicesByStem.get(token.stem);
+			if (sameStem) sameStem.push(index);
+			else tokenIndicesByStem.set(token.stem, [index]);
 		});
-		segments.push({ tokens, clauseStart });
+		segments.push({ tokens, tokenIndicesByStem, clauseStart });
 	}
 	return segments;
 }
@@ -300,23 +359,58 @@ interface WindowMatch {
 	negatedFrom: number | null;
 }
 
+/** How well complaint token `token` stands for phrase word `wordIndex` of `entry` (0..1). */
+function measureTokenFit(
+	entry: PhraseEntry,
+	wordIndex: number,
+	token: SegmentToken,
+	reading: WordReading
+): number {
+	if (token.stem === entry.stems[wordIndex]) return 1;
+	return reading.size === 0 ? 0 : (reading.get(entry.words[wordIndex]) ?? 0);
+}
+
+/**
+ * The best-scoring window of the segment for this phrase. Windows start and end on tokens that
+ * fit some phrase word: a window edge on a word the phrase lacks only lowers the score.
+ */
 function findBestWindow(
 	entry: PhraseEntry,
 	segment: Segment,
-	lexicon: ReadonlySet<string>
+	readings: WordReading[],
+	typoTokenIndices: readonly number[]
 ): WindowMatch | null {
-	const { tokens } = segment;
+	// Most candidates share one common word with the segment: skip those that could not reach the
+	// coverage even if every little word of theirs were there too.
+	let reachableWeight = 0;
+	entry.words.forEach((word, wordIndex) => {
+		if (
+			LITTLE_WORDS.has(word) ||
+			segment.tokenIndicesByStem.has(entry.stems[wordIndex]) ||
+			typoTokenIndices.some((index) => readings[index].has(word))
+		) {
+			reachableWeight += entry.weights[wordIndex];
+		}
+	});
+	if (reachableWeight < MIN_PHRASE_COVERAGE * entry.totalWeight) return null;
+	const anchorSet = new Set<number>();
+	for (const stem of entry.stems) {
+		for (const index of segment.tokenIndicesByStem.get(stem) ?? []) anchorSet.add(index);
+	}
+	for (const index of typoTokenIndices) {
+		if (entry.words.some((word) => readings[index].has(word))) anchorSet.add(index);
+	}
+	const anchors = [...anchorSet]
+		.filter((index) => !NEGATIONS.has(segment.tokens[index].word))
+		.sort((a, b) => a - b);
 	const maxLength = entry.words.length + EXTRA_WINDOW_WORDS;
 	let best: WindowMatch | null = null;
-	for (let start = 0; start < tokens.length; start++) {
-		if (NEGATIONS.has(tokens[start].word)) continue;
-		const words: string[] = [];
-		for (let end = start + 1; end <= Math.min(tokens.length, start + maxLength); end++) {
-			const word = tokens[end - 1].word;
-			if (CONJUNCTIONS.has(word) && !entry.conjunctions.has(word)) break;
-			if (!NEGATIONS.has(word)) words.push(word);
-			if (words.length === 0) continue;
-			const score = scoreWindow(entry, words, lexicon);
+	for (let first = 0; first < anchors.length; first++) {
+		const start = anchors[first];
+		for (let last = first; last < anchors.length; last++) {
+			const end = anchors[last] + 1;
+			if (end - start > maxLength) break;
+			const score = scoreWindow(entry, segment, start, end, readings);
 			if (score === null || (best && score <= best.score)) continue;
 			best = { start, end, score, negatedFrom: findNegation(segment, start, end) };
 		}
@@ -327,28 +421,38 @@ function findBestWindow(
 /** Recall-weighted F-score (β = 2) of phrase words found in the window, or null if too weak. */
 function scoreWindow(
 	entry: PhraseEntry,
-	windowWords: string[],
-	lexicon: ReadonlySet<string>
+	segment: Segment,
+	start: number,
+	end: number,
+	readings: WordReading[]
 ): number | null {
-	const used = new Uint8Array(windowWords.length);
+	const used = new Uint8Array(end - start);
+	let windowWeight = 0;
+	for (let index = start; index < end; index++) {
+		const word = segment.tokens[index].word;
+		if (CONJUNCTIONS.has(word) && !entry.conjunctions.has(word)) return null;
+		if (NEGATIONS.has(word)) used[index - start] = 1;
+		else windowWeight += weighWord(word);
+	}
 	let matchedWeight = 0;
-	entry.words.forEach((phraseWord, phraseIndex) => {
-		let bestSimilarity = 0;
-		let bestIndex = -1;
-		windowWords.forEach((windowWord, windowIndex) => {
-			if (used[windowIndex]) return;
-			const similarity = measureWordSimilarity(phraseWord, windowWord, lexicon);
-			if (similarity > bestSimilarity) {
-				bestSimilarity = similarity;
-				bestIndex = windowIndex;
+	for (let wordIndex = 0; wordIndex < entry.words.length; wordIndex++) {
+		let bestFit = 0;
+		let bestAt = -1;
+		for (let index = start; index < end; index++) {
+			if (used[index - start]) continue;
+			const fit = measureTokenFit(entry, wordIndex, segment.tokens[index], readings[index]);
+			if (fit > bestFit) {
+				bestFit = fit;
+				bestAt = index;
+				if (fit === 1) break;
 			}
-		});
-		if (bestIndex >= 0) {
-			used[bestIndex] = 1;
-			matchedWeight += bestSimilarity * entry.weights[phraseIndex];
 		}
-	});
-	const windowWeight = windowWords.reduce((sum, word) => sum + weighWord(word), 0);
+		if (bestAt >= 0) {
+			used[bestAt - start] = 1;
+			matchedWeight += bestFit * entry.weights[wordIndex];
+		}
+	}
+	if (windowWeight === 0) return null;
 	const recall = matchedWeight / entry.totalWeight;
 	const precision = matchedWeight / windowWeight;
 	if (recall < MIN_PHRASE_COVERAGE || precision === 0) return null;

@@ -202,7 +202,25 @@ function guardCondition(condition: Condition): Condition {
 }
 
 export interface EngineEvaluator {
-	run(facts: FactVector): Promise<FiredMask>;
+	/**
+	 * Runs json-rules-engine on the answers. With `skipWaitingRules`, the run leaves out the
+	 * rules that cannot fire because an observation every way of satisfying them needs is
+	 * unanswered; the result is the same, the run cheaper.
+	 */
+	run(facts: FactVector, options?: { skipWaitingRules?: boolean }): Promise<FiredMask>;
+}
+
+/** A rule has a chance to fire only when every observation it requires is answered. */
+export function canRuleFire(rule: CompiledRule, facts: FactVector): boolean {
+	for (const required of rule.requiredFacts) if (facts[required] === undefined) return false;
+	return true;
+}
+
+// json-rules-engine internals a run view overrides (present in 7.3.1, checked at build time).
+interface EngineInternals {
+	rules: unknown[];
+	prioritizeRules(): unknown[][];
+	prioritizedRules: unknown[][] | null;
 }
 
 /**
@@ -229,19 +247,30 @@ export function buildEngineEvaluator(compiled: CompiledRulebook): EngineEvaluato
 			event: { type: rule.key }
 		});
 	}
+	const internals = engine as unknown as EngineInternals;
 	// Cache the priority sets on the engine itself so the per-run views never write them.
-	(engine as unknown as { prioritizeRules(): unknown }).prioritizeRules();
+	internals.prioritizeRules();
+	if (!Array.isArray(internals.rules) || internals.rules.length !== compiled.rules.length) {
+		throw new Error('json-rules-engine no longer keeps its rules in engine.rules');
+	}
+	const engineRules = internals.rules;
 	const ruleIndexByKey = compiled.ruleIndexByKey;
 	const ruleCount = compiled.rules.length;
 	const observationKeys = compiled.rulebook.observations.map((observation) => observation.key);
 
 	return {
-		async run(facts) {
+		async run(facts, options = {}) {
 			const runtimeFacts: Record<string, ObservationValue> = Object.create(null);
 			facts.forEach((value, index) => {
 				if (value !== undefined && value !== null) runtimeFacts[observationKeys[index]] = value;
 			});
-			const view = Object.create(engine) as Engine;
+			const view = Object.create(engine) as Engine & EngineInternals;
+			if (options.skipWaitingRules) {
+				// The view's own one-priority rule set; the shared engine is left untouched.
+				view.prioritizedRules = [
+					engineRules.filter((_, index) => canRuleFire(compiled.rules[index], facts))
+				];
+			}
 			const { events } = await view.run(runtimeFacts);
 			const fired = new Uint8Array(ruleCount);
 			for (const event of events) {

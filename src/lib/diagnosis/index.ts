@@ -38,7 +38,8 @@ export type Evaluator = 'engine' | 'compiled';
 export interface DiagnoseInput {
 	/** `null` means not known, the same as leaving the key out. */
 	observations: Record<string, ObservationValue | null>;
-	/** Asked but could not be answered: no evidence, and not asked again. */
+	/** Asked but could not be answered: no evidence, and not asked again. A key that also has
+	 * an answer in `observations` counts as answered. */
 	unknown?: string[];
 	complaint?: string;
 }
@@ -79,7 +80,7 @@ export interface Analysis {
 	tests: PlannedTest[];
 	matched: ComplaintMatch[];
 	cautions: string[];
-	/** The answers the ranking used: explicit ones, then matched ones. */
+	/** The answers the ranking used (explicit and matched), in rulebook order. */
 	facts: Record<string, ObservationValue>;
 	firedRules: string[];
 }
@@ -129,10 +130,7 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 	const causesByKey = new Map(book.causes.map((cause) => [cause.key, cause]));
 	const defaultEvaluator = options.evaluator ?? 'engine';
 
-	async function analyse(
-		input: DiagnoseInput,
-		runOptions: DiagnoseOptions = {}
-	): Promise<Analysis> {
+	async function score(input: DiagnoseInput, runOptions: DiagnoseOptions = {}) {
 		const unknown = new Set(
 			(input.unknown ?? []).filter((key) => compiled.observationsByKey.has(key))
 		);
@@ -153,7 +151,9 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 
 		const evaluator = runOptions.evaluator ?? defaultEvaluator;
 		const fired: FiredMask =
-			evaluator === 'engine' ? await engine.run(facts) : evaluateCompiled(compiled, facts);
+			evaluator === 'engine'
+				? await engine.run(facts, { skipWaitingRules: true })
+				: evaluateCompiled(compiled, facts);
 		const logOdds = sumLogOdds(compiled, fired);
 		const causes = rankCauses(compiled, fired, logOdds);
 		const probabilities = logOdds.map(logistic);
@@ -179,12 +179,13 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 				.flatMap((cause) => causesByKey.get(cause.key)?.cautions ?? []),
 			...tests.slice(0, FIRST_TESTS_WITH_CAUTIONS).flatMap((test) => test.cautions)
 		]);
+		return { causes, nextQuestions, tests, matched, cautions, facts, fired };
+	}
+
+	async function analyse(input: DiagnoseInput, runOptions?: DiagnoseOptions): Promise<Analysis> {
+		const { facts, fired, ...scored } = await score(input, runOptions);
 		return {
-			causes,
-			nextQuestions,
-			tests,
-			matched,
-			cautions,
+			...scored,
 			facts: Object.fromEntries(
 				book.observations.flatMap((observation, index) =>
 					facts[index] === undefined ? [] : [[observation.key, facts[index]]]
@@ -198,7 +199,7 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 		rulebook: book,
 		analyse,
 		async diagnose(input, runOptions) {
-			const analysis = await analyse(input, runOptions);
+			const analysis = await score(input, runOptions);
 			return {
 				causes: analysis.causes.map((cause) => ({
 					key: cause.key,

@@ -71,7 +71,8 @@ export function rankCauses(
 }
 
 function compareEvidence(a: Evidence, b: Evidence): number {
-	const weight = Math.abs(Math.log(b.lr)) - Math.abs(Math.log(a.lr));
+	// |ln lr| ordered without logarithms: lr and 1/lr weigh the same.
+	const weight = Math.max(b.lr, 1 / b.lr) - Math.max(a.lr, 1 / a.lr);
 	if (weight !== 0) return weight;
 	return compareKeys(a.rule, b.rule);
 }

@@ -19,11 +19,20 @@ export interface Costs {
 	rules: number;
 	observations: number;
 	engineRunMicros: number;
+	engineRunSkippingMicros: number;
 	compiledEvaluateMicros: number;
 	nextQuestionMicros: number;
 	diagnoseEngineMicros: number;
 	diagnoseCompiledMicros: number;
+	complaintMicros: number;
 }
+
+const SAMPLE_COMPLAINTS = [
+	'gets hot sitting in traffic, fine on the motorway',
+	'sweet smell inside the car and the windows fog up',
+	'losing water but no leaks on the drive',
+	'white smoke out the back all the time'
+];
 
 const PASSES = 3;
 
@@ -66,6 +75,9 @@ export async function measureCosts(label: string, rulebook: Rulebook, cases = 30
 		rules: rulebook.rules.length,
 		observations: rulebook.observations.length,
 		engineRunMicros: await timeAsync(cases, (index) => engine.run(factMaps[index])),
+		engineRunSkippingMicros: await timeAsync(cases, (index) =>
+			engine.run(factMaps[index], { skipWaitingRules: true })
+		),
 		compiledEvaluateMicros: timeSync(cases, (index) => evaluateCompiled(compiled, factMaps[index])),
 		nextQuestionMicros: timeSync(cases, (index) =>
 			planNextQuestions(
@@ -83,6 +95,9 @@ export async function measureCosts(label: string, rulebook: Rulebook, cases = 30
 		),
 		diagnoseCompiledMicros: await timeAsync(cases, (index) =>
 			diagnoser.diagnose({ observations: inputs[index] }, { evaluator: 'compiled' })
+		),
+		complaintMicros: timeSync(cases, (index) =>
+			diagnoser.matchComplaint(SAMPLE_COMPLAINTS[index % SAMPLE_COMPLAINTS.length])
 		)
 	};
 }
@@ -110,10 +125,12 @@ if (import.meta.url === `file://${process.argv[1]}`) {
 			rulebook: cost.label,
 			rules: cost.rules,
 			'engine.run µs': cost.engineRunMicros.toFixed(1),
+			'engine.run skipping µs': cost.engineRunSkippingMicros.toFixed(1),
 			'compiled µs': cost.compiledEvaluateMicros.toFixed(1),
 			'next-question µs': cost.nextQuestionMicros.toFixed(1),
 			'diagnose (engine) µs': cost.diagnoseEngineMicros.toFixed(1),
-			'diagnose (compiled) µs': cost.diagnoseCompiledMicros.toFixed(1)
+			'diagnose (compiled) µs': cost.diagnoseCompiledMicros.toFixed(1),
+			'complaint µs': cost.complaintMicros.toFixed(1)
 		}))
 	);
 }
