@@ -6,8 +6,7 @@ const config = {
 	preprocess: vitePreprocess(),
 	compilerOptions: {
 		// Runes per file: library components written in the old syntax keep working.
-		runes: ({ filename }) =>
-			filename.split(/[/\\]/).includes('node_modules') ? undefined : true
+		runes: ({ filename }) => (filename.split(/[/\\]/).includes('node_modules') ? undefined : true)
 	},
 	kit: {
 		adapter: adapter({ out: 'build', precompress: false })

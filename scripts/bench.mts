@@ -32,7 +32,8 @@ function makeCases(rulebook: Rulebook, count: number, seed = 7) {
 		for (let i = 0; i < answered; i++) {
 			const o = rulebook.observations[Math.floor(random() * rulebook.observations.length)];
 			if (o.kind === 'boolean') observations[o.key] = random() < 0.5;
-			else if (o.kind === 'enum') observations[o.key] = o.values[Math.floor(random() * o.values.length)];
+			else if (o.kind === 'enum')
+				observations[o.key] = o.values[Math.floor(random() * o.values.length)];
 			else observations[o.key] = o.bins[Math.floor(random() * o.bins.length)].value;
 		}
 		return observations;
@@ -65,7 +66,11 @@ async function benchEngine() {
 		const diagnoser = createDiagnoser(rulebook);
 		const cases = makeCases(rulebook, name === 'base' ? 1000 : 300);
 		const measure = async (label: string, fn: (c: Record<string, Value>) => unknown) =>
-			rows.push({ rulebook: name, rules: rulebook.rules.length, ...(await timePerCase(label, cases, fn)) });
+			rows.push({
+				rulebook: name,
+				rules: rulebook.rules.length,
+				...(await timePerCase(label, cases, fn))
+			});
 		await measure('json-rules-engine run', (facts) => diagnoser.evaluateWithEngine(facts));
 		await measure('compiled predicates', (facts) => diagnoser.evaluateCompiled(facts));
 		await measure('diagnose, engine evaluation (rank + next questions + tests)', (observations) =>
@@ -76,12 +81,22 @@ async function benchEngine() {
 		);
 		if (name === 'base') {
 			await measure('diagnose with a complaint to match', (observations) =>
-				diagnoser.diagnose({ observations, complaint: COMPLAINTS[Object.keys(observations).length % COMPLAINTS.length] })
+				diagnoser.diagnose({
+					observations,
+					complaint: COMPLAINTS[Object.keys(observations).length % COMPLAINTS.length]
+				})
 			);
 		}
 	}
 	console.log('\nEngine cost per case (mean over deterministic random cases)');
-	console.table(rows.map((r) => ({ rulebook: r.rulebook, rules: r.rules, step: r.label, 'µs per case': Math.round(r.us) })));
+	console.table(
+		rows.map((r) => ({
+			rulebook: r.rulebook,
+			rules: r.rules,
+			step: r.label,
+			'µs per case': Math.round(r.us)
+		}))
+	);
 	return rows;
 }
 
@@ -121,11 +136,19 @@ async function benchApi() {
 		});
 		const base = loadRulebookFromDir('rules');
 		const bodies = makeCases(base, 200, 11).map((observations, i) =>
-			JSON.stringify({ observations, complaint: i % 2 ? COMPLAINTS[i % COMPLAINTS.length] + ` (visit ${i})` : undefined })
+			JSON.stringify({
+				observations,
+				complaint: i % 2 ? COMPLAINTS[i % COMPLAINTS.length] + ` (visit ${i})` : undefined
+			})
 		);
 		let next = 0;
 		// Warm the server (JIT, compiled edition) before measuring.
-		await load(`${server.baseUrl}/api/v1/diagnose`, { method: 'POST', headers, body: fixedBody, duration: 2 });
+		await load(`${server.baseUrl}/api/v1/diagnose`, {
+			method: 'POST',
+			headers,
+			body: fixedBody,
+			duration: 2
+		});
 		const rows = {
 			'GET /api/health': await load(`${server.baseUrl}/api/health`, {}),
 			'POST /api/v1/diagnose (same body)': await load(`${server.baseUrl}/api/v1/diagnose`, {
@@ -143,12 +166,16 @@ async function benchApi() {
 				]
 			})
 		};
-		console.log(`\nAPI throughput, 10 connections, ${DURATION_S} s each, server and load on this machine`);
+		console.log(
+			`\nAPI throughput, 10 connections, ${DURATION_S} s each, server and load on this machine`
+		);
 		console.table(rows);
 		const health = rows['GET /api/health']['req/s'];
 		for (const [name, row] of Object.entries(rows)) {
 			if (name.startsWith('POST')) {
-				console.log(`${name}: ${((row['req/s'] / health) * 100).toFixed(0)} % of health throughput`);
+				console.log(
+					`${name}: ${((row['req/s'] / health) * 100).toFixed(0)} % of health throughput`
+				);
 			}
 		}
 	} finally {

@@ -6,7 +6,14 @@ import { existsSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 
 const BUILD_ENTRY = 'build/index.js';
-const SOURCES = ['src', 'static', 'package.json', 'svelte.config.js', 'vite.config.ts', 'tailwind.config.ts'];
+const SOURCES = [
+	'src',
+	'static',
+	'package.json',
+	'svelte.config.js',
+	'vite.config.ts',
+	'tailwind.config.ts'
+];
 
 function newestMtime(path) {
 	if (!existsSync(path)) return 0;
@@ -18,8 +25,7 @@ function newestMtime(path) {
 }
 
 const stale =
-	!existsSync(BUILD_ENTRY) ||
-	Math.max(...SOURCES.map(newestMtime)) > statSync(BUILD_ENTRY).mtimeMs;
+	!existsSync(BUILD_ENTRY) || Math.max(...SOURCES.map(newestMtime)) > statSync(BUILD_ENTRY).mtimeMs;
 if (stale) {
 	console.log('Causeway: building the app (first start or changed sources)…');
 	const result = spawnSync('npx', ['vite', 'build'], { stdio: 'inherit' });

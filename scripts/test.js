@@ -32,7 +32,11 @@ function vitestCounts(file) {
 function playwrightCounts(file) {
 	try {
 		const { stats } = JSON.parse(readFileSync(file, 'utf8'));
-		return { passed: stats.expected, failed: stats.unexpected + stats.flaky * 0, skipped: stats.skipped };
+		return {
+			passed: stats.expected,
+			failed: stats.unexpected + stats.flaky * 0,
+			skipped: stats.skipped
+		};
 	} catch {
 		return null;
 	}
@@ -68,9 +72,14 @@ if (wants('integration') || wants('e2e')) {
 		if (wants('integration')) vitestStage('integration');
 		if (wants('e2e')) {
 			const file = `${REPORT_DIR}/e2e.json`;
-			const status = run('end-to-end tests (playwright, Chromium)', 'npx', ['playwright', 'test', '--reporter=list,json'], {
-				PLAYWRIGHT_JSON_OUTPUT_NAME: file
-			});
+			const status = run(
+				'end-to-end tests (playwright, Chromium)',
+				'npx',
+				['playwright', 'test', '--reporter=list,json'],
+				{
+					PLAYWRIGHT_JSON_OUTPUT_NAME: file
+				}
+			);
 			const counts = playwrightCounts(file) ?? { passed: 0, failed: 1, skipped: 0 };
 			if (status !== 0 && counts.failed === 0) counts.failed = 1;
 			stages.push({ name: 'e2e', ...counts });
@@ -80,10 +89,15 @@ if (wants('integration') || wants('e2e')) {
 }
 
 const total = stages.reduce(
-	(t, s) => ({ passed: t.passed + s.passed, failed: t.failed + s.failed, skipped: t.skipped + s.skipped }),
+	(t, s) => ({
+		passed: t.passed + s.passed,
+		failed: t.failed + s.failed,
+		skipped: t.skipped + s.skipped
+	}),
 	{ passed: 0, failed: 0, skipped: 0 }
 );
 console.log('\n━━ summary ━━');
-for (const s of stages) console.log(`${s.name}: ${s.passed} passed, ${s.failed} failed, ${s.skipped} skipped`);
+for (const s of stages)
+	console.log(`${s.name}: ${s.passed} passed, ${s.failed} failed, ${s.skipped} skipped`);
 console.log(`tests: ${total.passed} passed, ${total.failed} failed, ${total.skipped} skipped`);
 process.exit(exitCode);

@@ -13,7 +13,10 @@ async function signIn(page: Page, email: string, pass: string) {
 
 const stamp = Date.now();
 
-test('a new shop invites a technician, who joins from the e-mailed link', async ({ page, browser }) => {
+test('a new shop invites a technician, who joins from the e-mailed link', async ({
+	page,
+	browser
+}) => {
 	const owner = `owner.${stamp}@e2e.example`;
 	await page.goto('/signup');
 	await page.getByLabel('Shop name').fill('Kestrel Yard Motors');
@@ -57,16 +60,29 @@ test('a new shop invites a technician, who joins from the e-mailed link', async 
 
 const ROLE_VIEW = [
 	{ email: 'tech@saltmarsh.example', sees: ['Rank causes', 'Calculators'], refused: '/rulebook' },
-	{ email: 'lead@saltmarsh.example', sees: ['Rank causes', 'Rulebook'], refused: '/settings/users' },
-	{ email: 'manager@saltmarsh.example', sees: ['Team', 'API keys', 'Audit log'], refused: '/settings/shop' },
-	{ email: 'admin@saltmarsh.example', sees: ['Team', 'API keys', 'Shop', 'Rulebook'], refused: null }
+	{
+		email: 'lead@saltmarsh.example',
+		sees: ['Rank causes', 'Rulebook'],
+		refused: '/settings/users'
+	},
+	{
+		email: 'manager@saltmarsh.example',
+		sees: ['Team', 'API keys', 'Audit log'],
+		refused: '/settings/shop'
+	},
+	{
+		email: 'admin@saltmarsh.example',
+		sees: ['Team', 'API keys', 'Shop', 'Rulebook'],
+		refused: null
+	}
 ];
 
 for (const role of ROLE_VIEW) {
 	test(`${role.email} sees their sections and is refused the rest`, async ({ page }) => {
 		await signIn(page, role.email, password());
 		const nav = page.getByRole('navigation', { name: 'Main' });
-		for (const label of role.sees) await expect(nav.getByRole('link', { name: label, exact: true })).toBeVisible();
+		for (const label of role.sees)
+			await expect(nav.getByRole('link', { name: label, exact: true })).toBeVisible();
 		if (role.refused) {
 			const res = await page.goto(role.refused);
 			expect(res?.status()).toBe(403);
@@ -85,6 +101,8 @@ test('a wrong password shows one generic message and keeps the e-mail', async ({
 	await page.getByLabel('E-mail').fill('tech@saltmarsh.example');
 	await page.getByLabel('Password').fill('not-the-password');
 	await page.getByRole('button', { name: 'Sign in' }).click();
-	await expect(page.getByRole('alert')).toHaveText('That e-mail and password do not match an active account.');
+	await expect(page.getByRole('alert')).toHaveText(
+		'That e-mail and password do not match an active account.'
+	);
 	await expect(page.getByLabel('E-mail')).toHaveValue('tech@saltmarsh.example');
 });

@@ -1,6 +1,8 @@
 import { expect, test } from '@playwright/test';
 
-test('on a tablet a technician answers by touch and the ranking updates beside the prompt', async ({ page }) => {
+test('on a tablet a technician answers by touch and the ranking updates beside the prompt', async ({
+	page
+}) => {
 	await page.goto('/signin');
 	await page.getByLabel('E-mail').fill('tech@saltmarsh.example');
 	await page.getByLabel('Password').fill(process.env.E2E_DEMO_PASSWORD!);

@@ -13,19 +13,35 @@ describe('API keys', () => {
 		expect(listing).toContain(key.slice(0, 10));
 		expect(listing).not.toContain(key);
 		const db = openServerDb();
-		const stored = await db.execute({ sql: 'SELECT id, key_hash FROM api_keys WHERE prefix = ?', args: [key.slice(0, 10)] });
+		const stored = await db.execute({
+			sql: 'SELECT id, key_hash FROM api_keys WHERE prefix = ?',
+			args: [key.slice(0, 10)]
+		});
 		expect(stored.rows).toHaveLength(1);
 		expect(stored.rows[0].key_hash).not.toContain(key);
 
 		const anon = newClient();
-		const ok = await anon.json('/api/v1/diagnose', { observations: {} }, { authorization: `Bearer ${key}` });
+		const ok = await anon.json(
+			'/api/v1/diagnose',
+			{ observations: {} },
+			{ authorization: `Bearer ${key}` }
+		);
 		expect(ok.status).toBe(200);
-		const used = await db.execute({ sql: 'SELECT last_used_at FROM api_keys WHERE id = ?', args: [stored.rows[0].id] });
+		const used = await db.execute({
+			sql: 'SELECT last_used_at FROM api_keys WHERE id = ?',
+			args: [stored.rows[0].id]
+		});
 		expect(used.rows[0].last_used_at).not.toBeNull();
 
-		const revoked = await client.action('/settings/api-keys?/revoke', { keyId: String(stored.rows[0].id) });
+		const revoked = await client.action('/settings/api-keys?/revoke', {
+			keyId: String(stored.rows[0].id)
+		});
 		expect(revoked.type).toBe('success');
-		const refused = await anon.json('/api/v1/diagnose', { observations: {} }, { authorization: `Bearer ${key}` });
+		const refused = await anon.json(
+			'/api/v1/diagnose',
+			{ observations: {} },
+			{ authorization: `Bearer ${key}` }
+		);
 		expect(refused.status).toBe(401);
 		expect(refused.body).toEqual({
 			error: { code: 'unauthenticated', message: 'The API key is missing, unknown or revoked.' }
@@ -34,7 +50,11 @@ describe('API keys', () => {
 	});
 
 	it('registers DEMO_API_KEY as the demo shop’s intake key when it is set', async () => {
-		const res = await newClient().json('/api/v1/diagnose', { observations: {} }, { authorization: `Bearer ${DEMO_API_KEY}` });
+		const res = await newClient().json(
+			'/api/v1/diagnose',
+			{ observations: {} },
+			{ authorization: `Bearer ${DEMO_API_KEY}` }
+		);
 		expect(res.status).toBe(200);
 	});
 

@@ -24,7 +24,12 @@ describe('creating a shop', () => {
 		const db = openServerDb();
 		const before = (await db.execute('SELECT count(*) AS n FROM shops')).rows[0].n;
 		const client = newClient();
-		const dup = await client.action('/signup', { shopName: 'X', name: 'Y', email, password: 'another-long-pass-1' });
+		const dup = await client.action('/signup', {
+			shopName: 'X',
+			name: 'Y',
+			email,
+			password: 'another-long-pass-1'
+		});
 		expect(dup.status).toBe(409);
 		expect(dup.data?.message).toBe('That e-mail address already has an account.');
 		const common = await client.action('/signup', {
@@ -35,7 +40,12 @@ describe('creating a shop', () => {
 		});
 		expect(common.status).toBe(400);
 		expect(common.data?.message).toMatch(/most common/);
-		const short = await client.action('/signup', { shopName: 'X', name: 'Y', email: uniqueEmail('x'), password: 'a1b2c3' });
+		const short = await client.action('/signup', {
+			shopName: 'X',
+			name: 'Y',
+			email: uniqueEmail('x'),
+			password: 'a1b2c3'
+		});
 		expect(short.status).toBe(400);
 		expect(short.data?.message).toMatch(/at least 8/);
 		const after = (await db.execute('SELECT count(*) AS n FROM shops')).rows[0].n;
@@ -59,7 +69,10 @@ describe('signing in and out', () => {
 		const { email } = await createShop();
 		const client = newClient();
 		const wrong = await client.action('/signin', { email, password: 'not-the-password' });
-		const unknown = await client.action('/signin', { email: uniqueEmail('nobody'), password: 'whatever-pass' });
+		const unknown = await client.action('/signin', {
+			email: uniqueEmail('nobody'),
+			password: 'whatever-pass'
+		});
 		expect(wrong.status).toBe(400);
 		expect(unknown.status).toBe(400);
 		expect(wrong.data?.message).toBe(unknown.data?.message);
@@ -71,7 +84,9 @@ describe('signing in and out', () => {
 		const client = newClient();
 		const statuses: number[] = [];
 		for (let i = 0; i < 6; i++) {
-			statuses.push((await client.action('/signin', { email, password: 'wrong-guess-' + i })).status!);
+			statuses.push(
+				(await client.action('/signin', { email, password: 'wrong-guess-' + i })).status!
+			);
 		}
 		expect(statuses.slice(0, 5)).toEqual([400, 400, 400, 400, 400]);
 		expect(statuses[5]).toBe(429);
@@ -79,7 +94,10 @@ describe('signing in and out', () => {
 		expect(locked.status).toBe(429);
 		// The lock is not permanent: once it has passed, the right password works again.
 		const db = openServerDb();
-		await db.execute({ sql: "UPDATE rate_limits SET locked_until = 0 WHERE key = ?", args: [`login:account:${email}`] });
+		await db.execute({
+			sql: 'UPDATE rate_limits SET locked_until = 0 WHERE key = ?',
+			args: [`login:account:${email}`]
+		});
 		db.close();
 		const ok = await client.action('/signin', { email, password });
 		expect(ok.type).toBe('redirect');
@@ -105,7 +123,10 @@ describe('signing in and out', () => {
 		const token = cookie.split(';')[0].split('=')[1];
 		expect(token.length).toBeGreaterThanOrEqual(26); // 160 random bits in base32
 		const db = openServerDb();
-		const found = await db.execute({ sql: 'SELECT count(*) AS n FROM sessions WHERE id = ?', args: [token] });
+		const found = await db.execute({
+			sql: 'SELECT count(*) AS n FROM sessions WHERE id = ?',
+			args: [token]
+		});
 		expect(found.rows[0].n).toBe(0);
 		db.close();
 	});
@@ -128,7 +149,10 @@ describe('signing in and out', () => {
 		const res = await fetch(`${newClient().baseUrl}/signin`, {
 			method: 'POST',
 			redirect: 'manual',
-			headers: { origin: 'https://elsewhere.example', 'content-type': 'application/x-www-form-urlencoded' },
+			headers: {
+				origin: 'https://elsewhere.example',
+				'content-type': 'application/x-www-form-urlencoded'
+			},
 			body: new URLSearchParams({ email, password }).toString()
 		});
 		expect(res.status).toBe(403);
@@ -148,14 +172,20 @@ describe('inviting a user', () => {
 		const page = await newcomer.get(path);
 		expect(page.status).toBe(200);
 		expect(await page.text()).toContain('Marsh End Motors');
-		const accepted = await newcomer.action(path, { name: 'New Tech', password: 'coolant-level-check-3' });
+		const accepted = await newcomer.action(path, {
+			name: 'New Tech',
+			password: 'coolant-level-check-3'
+		});
 		expect(accepted.type).toBe('redirect');
 		const home = await newcomer.get('/');
 		expect(await home.text()).toContain('Technician');
 
 		const again = await newClient().get(path);
 		expect(again.status).toBe(404);
-		const reuse = await newClient().action(path, { name: 'Someone', password: 'another-good-pass-4' });
+		const reuse = await newClient().action(path, {
+			name: 'Someone',
+			password: 'another-good-pass-4'
+		});
 		expect(reuse.type).toBe('failure');
 		expect(reuse.status).toBe(404);
 		expect(reuse.data?.message).toBe('This invitation link has expired or was already used.');
@@ -219,7 +249,10 @@ describe('managing users', () => {
 		expect((await member.get('/rulebook')).status).toBe(403);
 
 		const db = openServerDb();
-		const { rows } = await db.execute({ sql: 'SELECT id FROM users WHERE email = ?', args: [email] });
+		const { rows } = await db.execute({
+			sql: 'SELECT id FROM users WHERE email = ?',
+			args: [email]
+		});
 		const userId = String(rows[0].id);
 		const changed = await client.action('/settings/users?/changeRole', { userId, role: 'lead' });
 		expect(changed.type).toBe('success');
@@ -233,10 +266,14 @@ describe('managing users', () => {
 		const again = await newClient().action('/signin', { email, password: 'hose-clamp-spanner-5' });
 		expect(again.status).toBe(400);
 		const audit = await db.execute({
-			sql: "SELECT action FROM audit_log WHERE target = ? ORDER BY id",
+			sql: 'SELECT action FROM audit_log WHERE target = ? ORDER BY id',
 			args: [userId]
 		});
-		expect(audit.rows.map((r) => r.action)).toEqual(['user.joined', 'user.role_changed', 'user.deactivated']);
+		expect(audit.rows.map((r) => r.action)).toEqual([
+			'user.joined',
+			'user.role_changed',
+			'user.deactivated'
+		]);
 		db.close();
 	});
 
@@ -248,7 +285,10 @@ describe('managing users', () => {
 		const { rows } = await db.execute(
 			"SELECT u.id FROM users u JOIN audit_log a ON a.actor_user_id = u.id WHERE a.action = 'shop.created' ORDER BY a.id DESC LIMIT 1"
 		);
-		const res = await client.action('/settings/users?/setActive', { userId: String(rows[0].id), active: 'false' });
+		const res = await client.action('/settings/users?/setActive', {
+			userId: String(rows[0].id),
+			active: 'false'
+		});
 		expect(res.status).toBe(409);
 		db.close();
 	});

@@ -23,7 +23,15 @@ describe('the SQLite database through libSQL', () => {
 		expect(await pragma(db, 'journal_mode')).toBe('wal');
 		const tables = await db.$client.execute("SELECT name FROM sqlite_master WHERE type = 'table'");
 		expect(tables.rows.map((r) => r.name)).toEqual(
-			expect.arrayContaining(['shops', 'users', 'sessions', 'api_keys', 'audit_log', 'rate_limits', 'rulebook_editions'])
+			expect.arrayContaining([
+				'shops',
+				'users',
+				'sessions',
+				'api_keys',
+				'audit_log',
+				'rate_limits',
+				'rulebook_editions'
+			])
 		);
 	});
 
@@ -37,7 +45,10 @@ describe('the SQLite database through libSQL', () => {
 		const failure = await db
 			.insert(auditLog)
 			.values({ shopId: 'no-such-shop', action: 'x' })
-			.then(() => null, (err: Error) => err);
+			.then(
+				() => null,
+				(err: Error) => err
+			);
 		expect(String(failure?.cause ?? failure)).toMatch(/FOREIGN KEY/);
 	});
 

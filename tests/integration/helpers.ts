@@ -32,7 +32,12 @@ export async function createShop(shopName = 'Cinder Hill Auto') {
 	const client = newClient();
 	const email = uniqueEmail('owner');
 	const password = 'radiator-cap-tester-9';
-	const result = await client.action('/signup', { shopName, name: 'Owner Person', email, password });
+	const result = await client.action('/signup', {
+		shopName,
+		name: 'Owner Person',
+		email,
+		password
+	});
 	if (result.type !== 'redirect') throw new Error(`sign-up failed: ${JSON.stringify(result)}`);
 	return { client, email, password };
 }

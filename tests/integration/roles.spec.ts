@@ -19,8 +19,16 @@ const PAGES: Record<string, Role[]> = {
 
 /** Form actions with a harmless but valid body; a refused role must change nothing. */
 const ACTIONS: { path: string; fields: Record<string, string>; allowed: Role[] }[] = [
-	{ path: '/settings/users?/invite', fields: { email: 'x', role: 'technician' }, allowed: ['manager', 'admin'] },
-	{ path: '/settings/users?/changeRole', fields: { userId: 'x', role: 'lead' }, allowed: ['manager', 'admin'] },
+	{
+		path: '/settings/users?/invite',
+		fields: { email: 'x', role: 'technician' },
+		allowed: ['manager', 'admin']
+	},
+	{
+		path: '/settings/users?/changeRole',
+		fields: { userId: 'x', role: 'lead' },
+		allowed: ['manager', 'admin']
+	},
 	{ path: '/settings/api-keys?/create', fields: { name: '' }, allowed: ['manager', 'admin'] },
 	{ path: '/settings/api-keys?/revoke', fields: { keyId: '' }, allowed: ['manager', 'admin'] },
 	{ path: '/settings/shop?/save', fields: { name: '' }, allowed: ['admin'] }
@@ -88,9 +96,12 @@ describe('role × API matrix', () => {
 describe('one shop never reaches another shop’s data', () => {
 	it('answers 404, not 403, for another shop’s user and key ids, and changes nothing', async () => {
 		const db = openServerDb();
-		const demoUser = await db.execute({ sql: 'SELECT id, role FROM users WHERE email = ?', args: [DEMO.technician] });
+		const demoUser = await db.execute({
+			sql: 'SELECT id, role FROM users WHERE email = ?',
+			args: [DEMO.technician]
+		});
 		const demoKey = await db.execute(
-			"SELECT k.id FROM api_keys k JOIN shops s ON s.id = k.shop_id WHERE s.is_demo = 1 AND k.revoked_at IS NULL LIMIT 1"
+			'SELECT k.id FROM api_keys k JOIN shops s ON s.id = k.shop_id WHERE s.is_demo = 1 AND k.revoked_at IS NULL LIMIT 1'
 		);
 		const { client } = await createShop('Other Side Garage');
 		const role = await client.action('/settings/users?/changeRole', {
@@ -103,13 +114,21 @@ describe('one shop never reaches another shop’s data', () => {
 			active: 'false'
 		});
 		expect(deactivate.status).toBe(404);
-		const revoke = await client.action('/settings/api-keys?/revoke', { keyId: String(demoKey.rows[0].id) });
+		const revoke = await client.action('/settings/api-keys?/revoke', {
+			keyId: String(demoKey.rows[0].id)
+		});
 		expect(revoke.status).toBe(404);
 
-		const after = await db.execute({ sql: 'SELECT role, active FROM users WHERE email = ?', args: [DEMO.technician] });
+		const after = await db.execute({
+			sql: 'SELECT role, active FROM users WHERE email = ?',
+			args: [DEMO.technician]
+		});
 		expect(after.rows[0].role).toBe(demoUser.rows[0].role);
 		expect(after.rows[0].active).toBe(1);
-		const key = await db.execute({ sql: 'SELECT revoked_at FROM api_keys WHERE id = ?', args: [String(demoKey.rows[0].id)] });
+		const key = await db.execute({
+			sql: 'SELECT revoked_at FROM api_keys WHERE id = ?',
+			args: [String(demoKey.rows[0].id)]
+		});
 		expect(key.rows[0].revoked_at).toBeNull();
 		db.close();
 	});

@@ -17,7 +17,9 @@ type Vignette = {
  * Presentations written from trade knowledge and reference.md, each with its rationale and source,
  * run through the public API as an intake form would send them.
  */
-const { cases } = JSON.parse(readFileSync('tests/vignettes/cases.json', 'utf8')) as { cases: Vignette[] };
+const { cases } = JSON.parse(readFileSync('tests/vignettes/cases.json', 'utf8')) as {
+	cases: Vignette[];
+};
 const outcomes: { id: string; rank: number; top1: boolean }[] = [];
 
 describe('vignettes through POST /api/v1/diagnose', () => {
@@ -33,7 +35,11 @@ describe('vignettes through POST /api/v1/diagnose', () => {
 		it(`${vignette.id}: ${vignette.expected} ranks in the top three`, async () => {
 			const res = await newClient().json(
 				'/api/v1/diagnose',
-				{ observations: vignette.observations, unknown: vignette.unknown, complaint: vignette.complaint },
+				{
+					observations: vignette.observations,
+					unknown: vignette.unknown,
+					complaint: vignette.complaint
+				},
 				{ authorization: `Bearer ${DEMO_API_KEY}` }
 			);
 			expect(res.status).toBe(200);
@@ -53,6 +59,7 @@ describe('vignettes through POST /api/v1/diagnose', () => {
 			`vignettes: top-1 ${top1}/${outcomes.length} (${((100 * top1) / outcomes.length).toFixed(1)} %), ` +
 				`top-3 ${top3}/${outcomes.length} (${((100 * top3) / outcomes.length).toFixed(1)} %)`
 		);
-		for (const o of outcomes.filter((o) => o.rank !== 1)) console.log(`  not first: ${o.id} (rank ${o.rank})`);
+		for (const o of outcomes.filter((o) => o.rank !== 1))
+			console.log(`  not first: ${o.id} (rank ${o.rank})`);
 	});
 });

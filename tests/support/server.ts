@@ -16,7 +16,12 @@ export async function freePort(): Promise<number> {
 	});
 }
 
-export type RunningServer = { baseUrl: string; dataDir: string; stop: () => Promise<void>; output: () => string };
+export type RunningServer = {
+	baseUrl: string;
+	dataDir: string;
+	stop: () => Promise<void>;
+	output: () => string;
+};
 
 /**
  * Starts the production build (`node build`) on a fresh SQLite file in its own folder, the way

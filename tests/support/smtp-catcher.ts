@@ -6,7 +6,9 @@ import { SMTPServer } from 'smtp-server';
  * A real SMTP server on loopback that accepts every message and writes it to `dir` as .eml, so
  * tests in other processes can read what the app sent.
  */
-export async function startSmtpCatcher(dir: string): Promise<{ port: number; close: () => Promise<void> }> {
+export async function startSmtpCatcher(
+	dir: string
+): Promise<{ port: number; close: () => Promise<void> }> {
 	mkdirSync(dir, { recursive: true });
 	let n = 0;
 	const server = new SMTPServer({

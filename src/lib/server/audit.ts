@@ -42,10 +42,7 @@ export async function listAudit(shopId: string, opts: { limit: number; beforeId?
 		.from(auditLog)
 		.leftJoin(users, eq(users.id, auditLog.actorUserId))
 		.where(
-			and(
-				eq(auditLog.shopId, shopId),
-				opts.beforeId ? lt(auditLog.id, opts.beforeId) : undefined
-			)
+			and(eq(auditLog.shopId, shopId), opts.beforeId ? lt(auditLog.id, opts.beforeId) : undefined)
 		)
 		.orderBy(desc(auditLog.id))
 		.limit(opts.limit);

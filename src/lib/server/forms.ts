@@ -35,7 +35,8 @@ export function failForm(errors: FieldErrors, values: Record<string, unknown> = 
 /** An expected domain failure as a form answer; anything else is rethrown. */
 export function failFromError(err: unknown, values: Record<string, unknown> = {}) {
 	if (!(err instanceof AppError)) throw err;
-	const status = err.code === 'conflict' ? 409 : err.status >= 400 && err.status < 500 ? err.status : 400;
+	const status =
+		err.code === 'conflict' ? 409 : err.status >= 400 && err.status < 500 ? err.status : 400;
 	const errors: FieldErrors = err.options.field ? { [err.options.field]: err.message } : {};
 	return fail(status, { message: err.message, errors, values });
 }

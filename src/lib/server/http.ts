@@ -70,7 +70,10 @@ export async function readJsonBody(request: Request, limitBytes: number): Promis
 }
 
 const tooLarge = (limitBytes: number) =>
-	new AppError('too_large', `The request body is larger than ${Math.round(limitBytes / 1024)} KiB.`);
+	new AppError(
+		'too_large',
+		`The request body is larger than ${Math.round(limitBytes / 1024)} KiB.`
+	);
 
 /** zod issues → the contract's `issues` list with dotted paths. */
 export function zodIssues(error: { issues: { path: PropertyKey[]; message: string }[] }): Issue[] {

@@ -103,7 +103,9 @@ export function getOpenApiDocument(): Record<string, unknown> {
 								'application/json': { schema: { $ref: '#/components/schemas/DiagnoseResponse' } }
 							}
 						},
-						'400': errorResponse('Not JSON, fails the schema, unknown observation, bad value or VIN'),
+						'400': errorResponse(
+							'Not JSON, fails the schema, unknown observation, bad value or VIN'
+						),
 						'401': errorResponse('No, unknown or revoked key, and no session'),
 						'403': errorResponse('Signed in, but the role may not do this'),
 						'413': errorResponse('Body over 64 KiB'),

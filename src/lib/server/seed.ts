@@ -37,7 +37,9 @@ export async function seedOnStart(log: (line: string) => void = console.log) {
 	const password =
 		config.DEMO_PASSWORD ?? (isProduction() ? undefined : DEMO_PASSWORD_LOCAL_DEFAULT);
 	if (!password) {
-		throw new Error('Causeway cannot start: DEMO_PASSWORD must be set to seed demo users in production');
+		throw new Error(
+			'Causeway cannot start: DEMO_PASSWORD must be set to seed demo users in production'
+		);
 	}
 	const apiKey = config.DEMO_API_KEY ?? generateApiKey();
 	const shopId = generateId();
@@ -55,7 +57,9 @@ export async function seedOnStart(log: (line: string) => void = console.log) {
 	log(`Causeway: seeded the demo shop "${DEMO_SHOP_NAME}".`);
 	log(
 		`  Sign in as ${DEMO_USERS.map((u) => u.email).join(', ')} with ` +
-			(config.DEMO_PASSWORD ? 'the password in DEMO_PASSWORD.' : `the local-only password "${password}".`)
+			(config.DEMO_PASSWORD
+				? 'the password in DEMO_PASSWORD.'
+				: `the local-only password "${password}".`)
 	);
 	log(
 		config.DEMO_API_KEY

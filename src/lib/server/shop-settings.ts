@@ -5,10 +5,18 @@ import { shops, type ShopSettings } from './db/schema';
 import { auditInsert } from './audit';
 
 /** Coolant change intervals: common practice, no source (reference.md: long-life coolant). */
-export const DEFAULT_COOLANT_INTERVALS = { firstChangeKm: 160_000, thenEveryKm: 80_000, everyMonths: 60 };
+export const DEFAULT_COOLANT_INTERVALS = {
+	firstChangeKm: 160_000,
+	thenEveryKm: 80_000,
+	everyMonths: 60
+};
 
 export const shopSettingsSchema = z.object({
-	name: z.string().trim().min(1, 'Enter the shop name.').max(120, 'Keep the name under 120 characters.'),
+	name: z
+		.string()
+		.trim()
+		.min(1, 'Enter the shop name.')
+		.max(120, 'Keep the name under 120 characters.'),
 	firstChangeKm: z.coerce
 		.number({ error: 'Enter a distance in km.' })
 		.int('Use whole kilometres.')

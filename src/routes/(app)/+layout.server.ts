@@ -8,7 +8,12 @@ export const load: LayoutServerLoad = async (event) => {
 	const user = requireUser(event);
 	const shop = await getShop(user.shopId);
 	return {
-		user: { name: user.name, email: user.email, role: user.role, roleLabel: ROLE_LABELS[user.role] },
+		user: {
+			name: user.name,
+			email: user.email,
+			role: user.role,
+			roleLabel: ROLE_LABELS[user.role]
+		},
 		shopName: shop.name,
 		nav: NAV.filter((item) => can(user.role, item.permission)).map(({ href, label }) => ({
 			href,

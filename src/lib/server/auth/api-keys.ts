@@ -92,7 +92,10 @@ export async function authenticateApiKey(key: string) {
 	if (!row) return null;
 	const now = Date.now();
 	if (!row.lastUsedAt || now - row.lastUsedAt.getTime() >= LAST_USED_RESOLUTION_MS) {
-		await db.update(apiKeys).set({ lastUsedAt: new Date(now) }).where(eq(apiKeys.id, row.id));
+		await db
+			.update(apiKeys)
+			.set({ lastUsedAt: new Date(now) })
+			.where(eq(apiKeys.id, row.id));
 	}
 	return { id: row.id, shopId: row.shopId };
 }

@@ -15,7 +15,11 @@ export type CookieSpec = {
 
 function cookieSpec(value: string, blank = false): CookieSpec {
 	const cookie = blank ? lucia.createBlankSessionCookie() : lucia.createSessionCookie(value);
-	return { name: cookie.name, value: cookie.value, attributes: { ...cookie.attributes, path: '/' } };
+	return {
+		name: cookie.name,
+		value: cookie.value,
+		attributes: { ...cookie.attributes, path: '/' }
+	};
 }
 
 /** A new session at every sign-in: 160-bit token in the cookie, its hash in the database. */

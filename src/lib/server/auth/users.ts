@@ -7,19 +7,17 @@ import { getConfig } from '../config';
 import { baseEditionInsert } from '../editions';
 import { generateId } from './crypto';
 import { checkPasswordStrength, getDummyHash, hashPassword, verifyPassword } from './password';
-import {
-	clearLoginFailures,
-	loginKeys,
-	loginLockedForS,
-	recordLoginFailure
-} from './rate-limit';
+import { clearLoginFailures, loginKeys, loginLockedForS, recordLoginFailure } from './rate-limit';
 import { invalidateUserSessions } from './session';
 import { assignableRoles } from './roles';
 
 export const normaliseEmail = (email: string) => email.trim().toLowerCase();
 
 export async function findUserByEmail(email: string): Promise<User | undefined> {
-	const [user] = await db.select().from(users).where(eq(users.email, normaliseEmail(email)));
+	const [user] = await db
+		.select()
+		.from(users)
+		.where(eq(users.email, normaliseEmail(email)));
 	return user;
 }
 
@@ -80,7 +78,11 @@ export type SignInResult =
  * One generic answer for a wrong e-mail, a wrong password or a deactivated account, and the same
  * argon2 cost in each case, so the form tells an attacker nothing about which accounts exist.
  */
-export async function signIn(emailInput: string, password: string, ip: string): Promise<SignInResult> {
+export async function signIn(
+	emailInput: string,
+	password: string,
+	ip: string
+): Promise<SignInResult> {
 	const email = normaliseEmail(emailInput);
 	const keys = loginKeys(email, ip);
 	const lockedS = await loginLockedForS(keys);
@@ -139,7 +141,10 @@ async function assertNotLastAdmin(shopId: string, target: User) {
 /** Changing a role ends the user's sessions, so the new role applies at once. */
 export async function changeUserRole(actor: Actor, userId: string, role: Role, ip?: string) {
 	const target = await getShopUser(actor.shopId, userId);
-	if (!assignableRoles(actor.role).includes(role) || (target.role === 'admin' && actor.role !== 'admin')) {
+	if (
+		!assignableRoles(actor.role).includes(role) ||
+		(target.role === 'admin' && actor.role !== 'admin')
+	) {
 		throw new AppError('forbidden', 'Only an admin can give or take the admin role.');
 	}
 	if (target.role === role) return;

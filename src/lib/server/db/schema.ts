@@ -73,7 +73,10 @@ export const invites = sqliteTable(
 		usedAt: integer('used_at', { mode: 'timestamp' }),
 		createdAt: createdAt()
 	},
-	(t) => [uniqueIndex('invites_token_unique').on(t.tokenHash), index('invites_shop_idx').on(t.shopId)]
+	(t) => [
+		uniqueIndex('invites_token_unique').on(t.tokenHash),
+		index('invites_shop_idx').on(t.shopId)
+	]
 );
 
 export const passwordResets = sqliteTable(
@@ -107,7 +110,10 @@ export const apiKeys = sqliteTable(
 		lastUsedAt: integer('last_used_at', { mode: 'timestamp' }),
 		revokedAt: integer('revoked_at', { mode: 'timestamp' })
 	},
-	(t) => [uniqueIndex('api_keys_hash_unique').on(t.keyHash), index('api_keys_shop_idx').on(t.shopId)]
+	(t) => [
+		uniqueIndex('api_keys_hash_unique').on(t.keyHash),
+		index('api_keys_shop_idx').on(t.shopId)
+	]
 );
 
 export const auditLog = sqliteTable(

@@ -11,7 +11,11 @@ export const load: PageServerLoad = async ({ locals }) => {
 	return {};
 };
 
-const signInSchema = z.object({ email: emailField, password: passwordField, next: z.string().optional() });
+const signInSchema = z.object({
+	email: emailField,
+	password: passwordField,
+	next: z.string().optional()
+});
 
 /** Only same-site paths: never send a person on to another site after signing in. */
 const safeNext = (next: string | undefined) =>
@@ -30,7 +34,10 @@ const signInAction: Action = async (event) => {
 				values: { email }
 			});
 		}
-		return fail(400, { message: 'That e-mail and password do not match an active account.', values: { email } });
+		return fail(400, {
+			message: 'That e-mail and password do not match an active account.',
+			values: { email }
+		});
 	}
 	const { cookie } = await createUserSession(result.user.id);
 	event.cookies.set(cookie.name, cookie.value, { ...cookie.attributes, path: '/' });

@@ -12,7 +12,10 @@ export const load: PageServerLoad = async (event) => {
 
 const createAction: Action = async (event) => {
 	const user = requirePermission(event, 'apikeys:manage');
-	const parsed = parseForm(z.object({ name: nameField('a name for the key') }), await event.request.formData());
+	const parsed = parseForm(
+		z.object({ name: nameField('a name for the key') }),
+		await event.request.formData()
+	);
 	if (!parsed.ok) return failForm(parsed.errors);
 	const { key } = await createApiKey(user, parsed.data.name, clientIp(event));
 	// Returned once in the action result; it is never stored or shown again.
@@ -21,7 +24,10 @@ const createAction: Action = async (event) => {
 
 const revokeAction: Action = async (event) => {
 	const user = requirePermission(event, 'apikeys:manage');
-	const parsed = parseForm(z.object({ keyId: z.string().min(1).max(64) }), await event.request.formData());
+	const parsed = parseForm(
+		z.object({ keyId: z.string().min(1).max(64) }),
+		await event.request.formData()
+	);
 	if (!parsed.ok) return failForm(parsed.errors);
 	try {
 		await revokeApiKey(user, parsed.data.keyId, clientIp(event));

@@ -42,7 +42,10 @@ const inviteAction: Action = async (event) => {
 
 const changeRoleAction: Action = async (event) => {
 	const user = requirePermission(event, 'users:manage');
-	const parsed = parseForm(z.object({ userId: userIdField, role: roleField }), await event.request.formData());
+	const parsed = parseForm(
+		z.object({ userId: userIdField, role: roleField }),
+		await event.request.formData()
+	);
 	if (!parsed.ok) return failForm(parsed.errors);
 	try {
 		await changeUserRole(user, parsed.data.userId, parsed.data.role, clientIp(event));

@@ -6,7 +6,8 @@ import { ROLE_LABELS } from '$lib/server/auth/roles';
 import { failForm, failFromError, nameField, parseForm, passwordField } from '$lib/server/forms';
 import type { Action, Actions, PageServerLoad } from './$types';
 
-const EXPIRED = 'This invitation link has expired or was already used. Ask your manager for a new one.';
+const EXPIRED =
+	'This invitation link has expired or was already used. Ask your manager for a new one.';
 
 export const load: PageServerLoad = async ({ params }) => {
 	const row = await findUsableInvite(params.token);

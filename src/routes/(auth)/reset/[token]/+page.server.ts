@@ -7,7 +7,8 @@ import type { Action, Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params }) => {
 	const row = await findUsableReset(params.token);
-	if (!row) error(404, { message: 'This reset link has expired or was already used. Ask for a new one.' });
+	if (!row)
+		error(404, { message: 'This reset link has expired or was already used. Ask for a new one.' });
 	return { email: row.email };
 };
 
