@@ -10,7 +10,12 @@ const flag = z
 	.transform((v) => v === '1' || v === 'true' || v === 'yes');
 
 const positiveInt = (fallback: number) =>
-	z.coerce.number().int().positive().optional().default(fallback);
+	z.coerce
+		.number({ error: 'must be a positive whole number' })
+		.int('must be a positive whole number')
+		.positive('must be a positive whole number')
+		.optional()
+		.default(fallback);
 
 export const configSchema = z.object({
 	NODE_ENV: z.string().optional().default('development'),
