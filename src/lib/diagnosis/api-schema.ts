@@ -174,12 +174,14 @@ export const diagnoseResponseSchema = z
 		causes: z
 			.array(rankedCauseSchema)
 			.meta({ description: 'Every cause, highest probability first; ties by key.' }),
-		nextQuestions: z
-			.array(nextQuestionSchema)
-			.meta({ description: 'Unanswered observations, most informative first.' }),
-		tests: z
-			.array(plannedTestSchema)
-			.meta({ description: 'Confirming tests in the order to do them.' }),
+		nextQuestions: z.array(nextQuestionSchema).meta({
+			description:
+				'Unanswered observations, most informative first: the best ten, or all that remain if fewer.'
+		}),
+		tests: z.array(plannedTestSchema).meta({
+			description:
+				'Confirming tests not yet done, in the order to do them (step lists are in the rulebook).'
+		}),
 		matched: z.array(complaintMatchSchema),
 		cautions: z.array(z.string()),
 		caseId: z

@@ -8,6 +8,8 @@ import { AppError } from './errors';
 import { zodIssues } from './http';
 import type { ApiCaller } from './guard';
 
+export const NEXT_QUESTIONS_IN_RESPONSE = 10;
+
 /** Parses a diagnose request; every problem is reported with its path, nothing is written. */
 export function parseDiagnoseRequest(body: unknown): DiagnoseRequest {
 	const parsed = diagnoseRequestSchema.safeParse(body);
@@ -54,6 +56,9 @@ export async function diagnoseForShop(caller: ApiCaller, request: DiagnoseReques
 	return {
 		rulebook: { edition: edition.number, publishedAt: edition.publishedAt?.toISOString() ?? null },
 		...diagnosis,
+		// The contract promises at least the best five; ten keep the answer small for intake forms.
+		nextQuestions: diagnosis.nextQuestions.slice(0, NEXT_QUESTIONS_IN_RESPONSE),
+		tests: diagnosis.tests.map(({ steps: _steps, ...test }) => test),
 		caseId
 	};
 }

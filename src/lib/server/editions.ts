@@ -81,7 +81,7 @@ export async function getPublishedEdition(shopId: string): Promise<PublishedEdit
 		if (!parsed.ok) {
 			throw new Error(`Edition ${row.id} fails validation: ${JSON.stringify(parsed.issues)}`);
 		}
-		compiled = { rulebook: parsed.rulebook, diagnoser: createDiagnoser(parsed.rulebook) };
+		compiled = { rulebook: parsed.rulebook, diagnoser: createDiagnoser(parsed.rulebook, { evaluator: 'compiled' }) };
 		if (diagnosers.size >= MAX_CACHED_EDITIONS) {
 			diagnosers.delete(diagnosers.keys().next().value!);
 		}

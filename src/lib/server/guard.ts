@@ -1,6 +1,6 @@
 import { error, redirect, type RequestEvent } from '@sveltejs/kit';
 import { authenticateApiKey } from './auth/api-keys';
-import { hitRateLimit } from './auth/rate-limit';
+import { hitRateLimits } from './auth/rate-limit';
 import { can, type Permission } from './auth/roles';
 import type { SessionUser } from './auth/session';
 import { getConfig } from './config';
@@ -35,46 +35,54 @@ export type ApiCaller = {
 	apiKeyId: string | null;
 };
 
+/** Who is calling: an API key of a shop, or a signed-in person; an AppError when neither may. */
+async function identifyCaller(
+	event: RequestEvent,
+	permission: Permission
+): Promise<ApiCaller | AppError> {
+	const authorization = event.request.headers.get('authorization');
+	if (authorization) {
+		const match = /^Bearer\s+(\S+)$/i.exec(authorization);
+		const key = match ? await authenticateApiKey(match[1]) : null;
+		if (!key) return new AppError('unauthenticated', 'The API key is missing, unknown or revoked.');
+		if (!API_KEY_PERMISSIONS.includes(permission)) {
+			return new AppError('forbidden', 'API keys may not do this; sign in instead.');
+		}
+		return { shopId: key.shopId, userId: null, apiKeyId: key.id };
+	}
+	const user = event.locals.user;
+	if (!user) {
+		return new AppError('unauthenticated', 'Sign in or send an API key (Authorization: Bearer …).');
+	}
+	if (!can(user.role, permission)) return new AppError('forbidden', 'Your role may not do this.');
+	return { shopId: user.shopId, userId: user.id, apiKeyId: null };
+}
+
 /**
- * For JSON endpoints: a Bearer key of the shop or a session cookie, rate-limited per key (or
- * user) and per IP. Failures are AppErrors that apiHandler turns into the contract's shape.
+ * For JSON endpoints: a Bearer key of the shop or a session cookie, rate-limited per address and
+ * per key (or user). Failures are AppErrors that apiHandler turns into the contract's shape.
  */
 export async function authenticateApi(
 	event: RequestEvent,
 	permission: Permission
 ): Promise<ApiCaller> {
 	const config = getConfig();
-	const ip = clientIp(event);
-	const ipLimit = await hitRateLimit(`api:ip:${ip}`, config.API_IP_RATE_LIMIT_PER_MINUTE, 60);
-	if (!ipLimit.allowed) {
-		throw new AppError('rate_limited', 'Too many requests from this address; slow down.', {
-			retryAfterS: ipLimit.retryAfterS
-		});
+	const caller = await identifyCaller(event, permission);
+	// Refused requests count against their address too (that is what slows key guessing);
+	// accepted ones also against their key or user. One write for both.
+	const buckets = [
+		{ key: `api:ip:${clientIp(event)}`, limit: config.API_IP_RATE_LIMIT_PER_MINUTE }
+	];
+	if (!(caller instanceof AppError)) {
+		const key = caller.apiKeyId ? `api:key:${caller.apiKeyId}` : `api:user:${caller.userId}`;
+		buckets.push({ key, limit: config.API_RATE_LIMIT_PER_MINUTE });
 	}
-	const authorization = event.request.headers.get('authorization');
-	let caller: ApiCaller;
-	if (authorization) {
-		const match = /^Bearer\s+(\S+)$/i.exec(authorization);
-		const key = match ? await authenticateApiKey(match[1]) : null;
-		if (!key) throw new AppError('unauthenticated', 'The API key is missing, unknown or revoked.');
-		if (!API_KEY_PERMISSIONS.includes(permission)) {
-			throw new AppError('forbidden', 'API keys may not do this; sign in instead.');
-		}
-		caller = { shopId: key.shopId, userId: null, apiKeyId: key.id };
-	} else if (event.locals.user) {
-		if (!can(event.locals.user.role, permission)) {
-			throw new AppError('forbidden', 'Your role may not do this.');
-		}
-		caller = { shopId: event.locals.user.shopId, userId: event.locals.user.id, apiKeyId: null };
-	} else {
-		throw new AppError('unauthenticated', 'Sign in or send an API key (Authorization: Bearer …).');
-	}
-	const bucket = caller.apiKeyId ? `api:key:${caller.apiKeyId}` : `api:user:${caller.userId}`;
-	const limit = await hitRateLimit(bucket, config.API_RATE_LIMIT_PER_MINUTE, 60);
+	const limit = await hitRateLimits(buckets, 60);
 	if (!limit.allowed) {
-		throw new AppError('rate_limited', 'Too many requests for this key; slow down.', {
+		throw new AppError('rate_limited', 'Too many requests; slow down.', {
 			retryAfterS: limit.retryAfterS
 		});
 	}
+	if (caller instanceof AppError) throw caller;
 	return caller;
 }

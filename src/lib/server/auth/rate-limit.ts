@@ -29,6 +29,38 @@ export async function hitRateLimit(key: string, limit: number, windowS: number, 
 
 const nowS = () => Math.floor(Date.now() / 1000);
 
+/**
+ * Several buckets in one upsert (one statement, one commit): the API counts each request per
+ * address and per key in a single write. Returns the tightest answer.
+ */
+export async function hitRateLimits(
+	buckets: { key: string; limit: number }[],
+	windowS: number,
+	now = nowS()
+) {
+	const rows = await db
+		.insert(rateLimits)
+		.values(buckets.map(({ key }) => ({ key, count: 1, windowStart: now })))
+		.onConflictDoUpdate({
+			target: rateLimits.key,
+			set: {
+				count: sql`CASE WHEN ${rateLimits.windowStart} <= ${now - windowS} THEN 1 ELSE ${rateLimits.count} + 1 END`,
+				windowStart: sql`CASE WHEN ${rateLimits.windowStart} <= ${now - windowS} THEN ${now} ELSE ${rateLimits.windowStart} END`
+			}
+		})
+		.returning({
+			key: rateLimits.key,
+			count: rateLimits.count,
+			windowStart: rateLimits.windowStart
+		});
+	let retryAfterS = 0;
+	for (const row of rows) {
+		const limit = buckets.find((b) => b.key === row.key)!.limit;
+		if (row.count > limit) retryAfterS = Math.max(retryAfterS, row.windowStart + windowS - now, 1);
+	}
+	return { allowed: retryAfterS === 0, retryAfterS };
+}
+
 /** Failed sign-ins: counted per account and per IP; the lock grows with each failure, never permanent. */
 const LOGIN_WINDOW_S = 15 * 60;
 const LOCK_BASE_S = 30;

@@ -7,6 +7,7 @@ export const load: PageServerLoad = async (event) => {
 	const edition = await getPublishedEdition(user.shopId);
 	return {
 		edition: edition.number,
+		testSteps: Object.fromEntries(edition.rulebook.tests.map((t) => [t.key, t.steps])),
 		observations: edition.rulebook.observations.map((o) => ({
 			key: o.key,
 			prompt: o.prompt,
