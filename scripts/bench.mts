@@ -112,15 +112,16 @@ async function load(url: string, opts: Partial<autocannon.Options>) {
 	};
 }
 
-async function benchApi() {
+async function benchApi(evaluator: 'compiled' | 'engine') {
 	if (!existsSync('build/index.js')) {
 		const built = spawnSync('npx', ['vite', 'build'], { stdio: 'inherit' });
 		if (built.status !== 0) throw new Error('build failed');
 	}
 	const key = 'cw_benchmarkintakekey00000000001';
 	const server = await startServer({
-		name: 'bench',
+		name: `bench-${evaluator}`,
 		env: {
+			DIAGNOSIS_EVALUATOR: evaluator,
 			CAUSEWAY_SEED_DEMO: '1',
 			DEMO_PASSWORD: 'bench-demo-password',
 			DEMO_API_KEY: key,
@@ -167,7 +168,7 @@ async function benchApi() {
 			})
 		};
 		console.log(
-			`\nAPI throughput, 10 connections, ${DURATION_S} s each, server and load on this machine`
+			`\nAPI throughput, ${evaluator} evaluator, 10 connections, ${DURATION_S} s each, server and load on this machine`
 		);
 		console.table(rows);
 		const health = rows['GET /api/health']['req/s'];
@@ -184,4 +185,7 @@ async function benchApi() {
 }
 
 await benchEngine();
-if (!process.argv.includes('--engine-only')) await benchApi();
+if (!process.argv.includes('--engine-only')) {
+	await benchApi('compiled');
+	await benchApi('engine');
+}

@@ -44,7 +44,12 @@ export const configSchema = z.object({
 	API_RATE_LIMIT_PER_MINUTE: positiveInt(600),
 	API_IP_RATE_LIMIT_PER_MINUTE: positiveInt(1200),
 	LOGIN_MAX_ATTEMPTS: positiveInt(5),
-	SIGNUP_LIMIT_PER_HOUR: positiveInt(10)
+	SIGNUP_LIMIT_PER_HOUR: positiveInt(10),
+	/**
+	 * Which evaluator decides the fired rules: the compiled predicates (default; proven equal to
+	 * json-rules-engine on random answer sets in the unit tests) or json-rules-engine itself.
+	 */
+	DIAGNOSIS_EVALUATOR: z.enum(['compiled', 'engine']).optional().default('compiled')
 });
 
 export type Config = z.infer<typeof configSchema>;

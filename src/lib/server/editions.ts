@@ -1,4 +1,4 @@
-import { and, desc, eq } from 'drizzle-orm';
+import { and, desc, eq, sql } from 'drizzle-orm';
 import { createDiagnoser, type Diagnoser } from '../diagnosis';
 import { loadRulebookFromDir } from '../diagnosis/load';
 import { parseRulebook, type Rulebook } from '../diagnosis/schema';
@@ -59,17 +59,25 @@ export type PublishedEdition = {
 const diagnosers = new Map<string, { diagnoser: Diagnoser; rulebook: Rulebook }>();
 const MAX_CACHED_EDITIONS = 200;
 
+const findPublishedEdition = db
+	.select({
+		id: rulebookEditions.id,
+		number: rulebookEditions.number,
+		publishedAt: rulebookEditions.publishedAt
+	})
+	.from(rulebookEditions)
+	.where(
+		and(
+			eq(rulebookEditions.shopId, sql.placeholder('shopId')),
+			eq(rulebookEditions.status, 'published')
+		)
+	)
+	.orderBy(desc(rulebookEditions.number))
+	.limit(1)
+	.prepare();
+
 export async function getPublishedEdition(shopId: string): Promise<PublishedEdition> {
-	const [row] = await db
-		.select({
-			id: rulebookEditions.id,
-			number: rulebookEditions.number,
-			publishedAt: rulebookEditions.publishedAt
-		})
-		.from(rulebookEditions)
-		.where(and(eq(rulebookEditions.shopId, shopId), eq(rulebookEditions.status, 'published')))
-		.orderBy(desc(rulebookEditions.number))
-		.limit(1);
+	const [row] = await findPublishedEdition.all({ shopId });
 	if (!row) throw new AppError('not_found', 'This shop has no published rulebook edition.');
 	let compiled = diagnosers.get(row.id);
 	if (!compiled) {
@@ -81,7 +89,12 @@ export async function getPublishedEdition(shopId: string): Promise<PublishedEdit
 		if (!parsed.ok) {
 			throw new Error(`Edition ${row.id} fails validation: ${JSON.stringify(parsed.issues)}`);
 		}
-		compiled = { rulebook: parsed.rulebook, diagnoser: createDiagnoser(parsed.rulebook, { evaluator: 'compiled' }) };
+		compiled = {
+			rulebook: parsed.rulebook,
+			diagnoser: createDiagnoser(parsed.rulebook, {
+				evaluator: getConfig().DIAGNOSIS_EVALUATOR
+			})
+		};
 		if (diagnosers.size >= MAX_CACHED_EDITIONS) {
 			diagnosers.delete(diagnosers.keys().next().value!);
 		}

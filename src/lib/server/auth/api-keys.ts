@@ -1,4 +1,4 @@
-import { and, desc, eq, isNull } from 'drizzle-orm';
+import { and, desc, eq, isNull, sql } from 'drizzle-orm';
 import { db } from '../db';
 import { apiKeys } from '../db/schema';
 import { auditInsert } from '../audit';
@@ -83,12 +83,15 @@ export async function revokeApiKey(actor: Actor, keyId: string, ip?: string) {
 /** Last use is recorded to the minute: enough for people, and it spares a write per request. */
 const LAST_USED_RESOLUTION_MS = 60_000;
 
+const findActiveKey = db
+	.select({ id: apiKeys.id, shopId: apiKeys.shopId, lastUsedAt: apiKeys.lastUsedAt })
+	.from(apiKeys)
+	.where(and(eq(apiKeys.keyHash, sql.placeholder('keyHash')), isNull(apiKeys.revokedAt)))
+	.prepare();
+
 export async function authenticateApiKey(key: string) {
 	if (!key.startsWith(API_KEY_PREFIX)) return null;
-	const [row] = await db
-		.select({ id: apiKeys.id, shopId: apiKeys.shopId, lastUsedAt: apiKeys.lastUsedAt })
-		.from(apiKeys)
-		.where(and(eq(apiKeys.keyHash, hashToken(key)), isNull(apiKeys.revokedAt)));
+	const [row] = await findActiveKey.all({ keyHash: hashToken(key) });
 	if (!row) return null;
 	const now = Date.now();
 	if (!row.lastUsedAt || now - row.lastUsedAt.getTime() >= LAST_USED_RESOLUTION_MS) {
