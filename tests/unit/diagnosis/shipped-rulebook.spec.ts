@@ -48,7 +48,7 @@ const HEALTHY_ANSWERS: Record<string, ObservationValue> = {
 	coolant_condition: 'clean',
 	oil_milky: false,
 	misfire_or_rough_cold_start: false,
-	// A 50 % ethylene glycol mix freezes near −37 °C (US Army TM 5-3895-382-24; John Deere OMSU31337).
+	// A 50 % ethylene glycol mix freezes near −37 °C (US Army TM 5-3895-382-24; an equipment operator's manual, OMSU31337).
 	freeze_point_c: -37,
 	pressure_test: 'holds',
 	cap_test: 'holds_rating',
