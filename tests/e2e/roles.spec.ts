@@ -106,3 +106,29 @@ test('a wrong password shows one generic message and keeps the e-mail', async ({
 	);
 	await expect(page.getByLabel('E-mail')).toHaveValue('tech@saltmarsh.example');
 });
+
+test('high-contrast mode for the bay is one press away and survives a reload', async ({ page }) => {
+	await signIn(page, 'tech@saltmarsh.example', password());
+	const toggle = page.getByRole('button', { name: 'High contrast' });
+	await expect(toggle).toHaveAttribute('aria-pressed', 'false');
+	await toggle.click();
+	await expect(page.locator('html')).toHaveAttribute('data-contrast', 'high');
+	await page.reload();
+	await expect(page.locator('html')).toHaveAttribute('data-contrast', 'high');
+	await expect(page.getByRole('button', { name: 'High contrast' })).toHaveAttribute(
+		'aria-pressed',
+		'true'
+	);
+	const ink = await page.evaluate(() => getComputedStyle(document.body).color);
+	expect(ink).toBe('rgb(0, 0, 0)');
+});
+
+test('fonts are served by Causeway itself, never fetched from a font host', async ({ page }) => {
+	const hosts = new Set<string>();
+	page.on('request', (request) => hosts.add(new URL(request.url()).host));
+	await signIn(page, 'tech@saltmarsh.example', password());
+	await page.evaluate(() => document.fonts.ready);
+	const families = await page.evaluate(() => [...document.fonts].map((f) => f.family));
+	expect(families.join(' ')).toContain('Atkinson Hyperlegible Next');
+	expect([...hosts]).toEqual([new URL(page.url()).host]);
+});
