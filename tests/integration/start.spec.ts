@@ -5,6 +5,7 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { Client } from '../support/client';
 import { freePort, startServer } from '../support/server';
+import { waitForLink } from '../support/smtp-catcher';
 
 describe('start-up and demo seeding', () => {
 	it('refuses to seed demo users under NODE_ENV=production unless asked explicitly', async () => {
@@ -50,6 +51,18 @@ describe('start-up and demo seeding', () => {
 			});
 			expect(res.status).toBe(303);
 			expect(res.headers.getSetCookie().join(';')).toMatch(/causeway_session=[^;]+;.*Secure/i);
+
+			// Without SMTP_URL, mail is written to MAIL_DIR as .eml files a mail client can open.
+			const reset = await new Client(server.baseUrl).action('/reset', {
+				email: 'lead@saltmarsh.example'
+			});
+			expect(reset.type).toBe('success');
+			const link = await waitForLink(
+				join(server.dataDir, 'mail-out'),
+				'lead@saltmarsh.example',
+				'/reset/'
+			);
+			expect(link.startsWith(`${server.baseUrl}/reset/`)).toBe(true);
 		} finally {
 			await server.stop();
 		}
