@@ -23,10 +23,6 @@ export function auditInsert(entry: AuditEntry) {
 	});
 }
 
-export async function recordAudit(entry: AuditEntry) {
-	await auditInsert(entry);
-}
-
 export async function listAudit(shopId: string, opts: { limit: number; beforeId?: number }) {
 	return db
 		.select({
