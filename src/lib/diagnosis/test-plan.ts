@@ -17,13 +17,27 @@ export interface PlannedTest {
 	score: number;
 }
 
-/** Per test, which causes (by index) it can confirm or clear: those of every rule whose
- * conditions mention the observation it sets. */
+/**
+ * A result "confirms or clears" a cause when one of the cause's rules on that result moves its
+ * odds at least threefold either way; a rule that nudges the odds a little does not make the test
+ * one for that cause. Common practice, no source: the usual reading of a likelihood ratio of 3
+ * or more as moderate evidence.
+ */
+export const DECISIVE_LR = 3;
+
+/** Per test, which causes (by index) its result can confirm or clear: the causes of the rules
+ * whose conditions mention the observation it sets, with a decisive weight; a test with no
+ * decisive rule targets every cause its observation touches. */
 export function findTestTargets(compiled: CompiledRulebook): Map<string, Uint8Array> {
 	const targets = new Map<string, Uint8Array>();
 	for (const test of compiled.rulebook.tests) {
+		const ruleIndices = compiled.ruleIndicesByObservation.get(test.sets) ?? [];
+		const decisive = ruleIndices.filter((i) => {
+			const lr = compiled.rules[i].lr;
+			return lr >= DECISIVE_LR || lr <= 1 / DECISIVE_LR;
+		});
 		const isTarget = new Uint8Array(compiled.causes.length);
-		for (const ruleIndex of compiled.ruleIndicesByObservation.get(test.sets) ?? []) {
+		for (const ruleIndex of decisive.length ? decisive : ruleIndices) {
 			isTarget[compiled.rules[ruleIndex].causeIndex] = 1;
 		}
 		targets.set(test.key, isTarget);

@@ -1,6 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import { createDiagnoser } from '../../../src/lib/diagnosis';
-import { createRng, makeCoolingRulebook, makeRandomFacts, makeRandomRulebook } from './factories';
+import {
+	createRng,
+	makeCoolingRulebook,
+	makeRandomFacts,
+	makeRandomRulebook,
+	makeRule,
+	makeRulebook
+} from './factories';
 
 describe('test plan', () => {
 	it('derives each test’s targets from the rules that mention what it sets', async () => {
@@ -13,6 +20,27 @@ describe('test plan', () => {
 			combustion_gas_check: ['head_gasket_breach'],
 			cap_check: ['pressure_cap_fault']
 		});
+	});
+
+	it('counts a cause as a target only when the result moves its odds threefold or more', async () => {
+		const base = makeRulebook();
+		const rulebook = {
+			...base,
+			rules: [
+				...base.rules,
+				// A nudge (×1.3) for the thermostat does not make the fan check a thermostat test.
+				makeRule({
+					key: 'fan-fault-nudges-thermostat',
+					cause: 'thermostat_stuck_closed',
+					lr: 1.3,
+					conditions: {
+						all: [{ fact: 'fan_circuit_test', operator: 'equal', value: 'fault_found' }]
+					}
+				})
+			]
+		};
+		const { tests } = await createDiagnoser(rulebook).analyse({ observations: {} });
+		expect(tests[0].targets).toEqual(['cooling_fan_fault']);
 	});
 
 	it('orders tests by probability of their targets per minute (p/c), priority 1 first', async () => {
