@@ -24,36 +24,51 @@ const EXTRA_WINDOW_WORDS = 3;
 /** A negation word reaches this many words ahead, within its clause. */
 const NEGATION_REACH_WORDS = 3;
 const MAX_COMPLAINT_CHARS = 2000;
+/** Score lost per pair of content words said in the other order: "reservoir is cracked" still
+ * reads as "cracked reservoir", but "coolant in the oil" reads closer to its own phrase than to
+ * "oil in the coolant". */
+const ORDER_PENALTY = 0.04;
+/** A longer match of another observation may be this much weaker and still explain a match
+ * whose words it contains. */
+const SUBSUMING_SCORE_SLACK = 0.1;
+/** Matches of two observations sharing this many content words are rival readings. */
+const MIN_SHARED_WORDS_FOR_RIVALS = 2;
 
-const NEGATIONS = new Set([
-	'no',
-	'not',
-	'never',
-	'without',
-	'nor',
-	"doesn't",
-	'doesnt',
-	"isn't",
-	'isnt',
-	"don't",
-	'dont',
-	"didn't",
-	'didnt',
-	"wasn't",
-	'wasnt',
-	"won't",
-	'wont',
-	"hasn't",
-	'hasnt',
-	"haven't",
-	'havent',
-	"can't",
-	'cant',
-	"aren't",
-	'arent',
-	"hadn't",
-	'hadnt'
+const NEGATIONS = new Set(['no', 'not', 'never', 'without', 'nor', 'none', 'nothing', 'neither']);
+/** "doesn't", "cant": the verb and a separate "not", so "fan doesn't come on" meets the phrase
+ * "fan does not come on". Customers often leave the apostrophe out. */
+const VERBS_BEFORE_NT = new Map([
+	['ca', 'can'],
+	['wo', 'will'],
+	['ai', 'is'],
+	['sha', 'shall']
 ]);
+const NEGATED_VERBS_WITHOUT_APOSTROPHE = new Map([
+	['doesnt', 'does'],
+	['dont', 'do'],
+	['didnt', 'did'],
+	['isnt', 'is'],
+	['arent', 'are'],
+	['wasnt', 'was'],
+	['werent', 'were'],
+	['wont', 'will'],
+	['cant', 'can'],
+	['cannot', 'can'],
+	['couldnt', 'could'],
+	['wouldnt', 'would'],
+	['shouldnt', 'should'],
+	['hasnt', 'has'],
+	['havent', 'have'],
+	['hadnt', 'had'],
+	['aint', 'is']
+]);
+/** After a negation these make it a doubt, not a denial: "not sure if the fan comes on". */
+const HEDGES = new Set(['sure', 'certain', 'know', 'idea', 'clue', 'remember']);
+/** After a negation this speaks of the past, which denies nothing now: "it never used to". */
+const PAST_HABITS = new Set(['used']);
+/** A doubt reaches a phrase only through one of these: "don't know if …" (but "can't tell where
+ * it is leaking from" is a statement). */
+const DOUBT_OPENERS = new Set(['if', 'whether']);
 const CONJUNCTIONS = new Set(['and', 'but', 'although', 'though', 'however', 'whereas']);
 // Little words count for a quarter: they may differ without changing what was said.
 const LITTLE_WORDS = new Set([
@@ -97,7 +112,38 @@ const LITTLE_WORDS = new Set([
 	'get',
 	'gets',
 	'keeps',
-	'still'
+	'still',
+	'do',
+	'does',
+	'did',
+	'has',
+	'have',
+	'had',
+	'will',
+	'would',
+	'can',
+	'could',
+	'should',
+	'am',
+	'were',
+	'being',
+	'under',
+	'into',
+	'onto',
+	'by',
+	'as',
+	'also',
+	'even',
+	'if',
+	'they',
+	'you',
+	'your',
+	'he',
+	'she',
+	'his',
+	'her',
+	'them',
+	'which'
 ]);
 const LITTLE_WORD_WEIGHT = 0.25;
 
@@ -111,22 +157,57 @@ function tokenize(text: string): Token[] {
 	const tokens: Token[] = [];
 	// Matched on the original text so that offsets point into what the customer wrote.
 	for (const match of text.matchAll(/[a-z0-9]+(?:['\u2018\u2019`][a-z]+)?/gi)) {
-		tokens.push({
-			word: match[0].toLowerCase().replace(/[\u2018\u2019`]/g, "'"),
-			start: match.index,
-			end: match.index + match[0].length
-		});
+		const start = match.index;
+		const end = start + match[0].length;
+		const word = match[0].toLowerCase().replace(/[\u2018\u2019`]/g, "'");
+		const apostrophe = word.indexOf("'");
+		const negatedVerb = word.endsWith("n't")
+			? (VERBS_BEFORE_NT.get(word.slice(0, -3)) ?? word.slice(0, -3))
+			: NEGATED_VERBS_WITHOUT_APOSTROPHE.get(word);
+		if (negatedVerb !== undefined) {
+			// Both halves quote the whole contraction.
+			if (negatedVerb) tokens.push({ word: negatedVerb, start, end });
+			tokens.push({ word: 'not', start, end });
+		} else if (apostrophe > 0) {
+			// "engine's", "it's", "i've": the word itself; the clitic adds nothing to match on.
+			tokens.push({ word: word.slice(0, apostrophe), start, end });
+		} else {
+			tokens.push({ word, start, end });
+		}
 	}
 	return tokens;
 }
 
+/**
+ * A light stemmer, the same for phrases and complaints: plural, -ing and -ed endings, a doubled
+ * final consonant on a longer word ("dripping", but "topping" stays apart from "top"), an
+ * adjective -y, a silent final e ("hose"/"hoses", "idle"/"idling") and British -ise against
+ * American -ize.
+ */
 function stemWord(word: string): string {
-	for (const suffix of ['ing', 'ed', 'es', 's']) {
-		if (word.length - suffix.length >= 3 && word.endsWith(suffix)) {
-			return word.slice(0, -suffix.length);
-		}
+	let stem = word;
+	let cutVerbEnding = false;
+	if (stem.length > 4 && (stem.endsWith('ies') || stem.endsWith('ied'))) {
+		stem = `${stem.slice(0, -3)}y`;
+	} else if (stem.length > 3 && stem.endsWith('oes')) {
+		stem = stem.slice(0, -2);
+	} else if (stem.length >= 6 && stem.endsWith('ing')) {
+		stem = stem.slice(0, -3);
+		cutVerbEnding = true;
+	} else if (stem.length >= 5 && stem.endsWith('ed') && !stem.endsWith('eed')) {
+		stem = stem.slice(0, -2);
+		cutVerbEnding = true;
+	} else if (stem.length >= 4 && stem.endsWith('s') && !/(?:ss|us|is)$/.test(stem)) {
+		stem = stem.slice(0, -1);
 	}
-	return word;
+	// "crusty", "leaky", "sludgy" stand for the noun.
+	if (stem.length >= 5 && /[^aeiou]y$/.test(stem)) stem = stem.slice(0, -1);
+	if (cutVerbEnding && stem.length >= 5 && /([^aeiouylszf])\1$/.test(stem)) {
+		stem = stem.slice(0, -1);
+	}
+	if (stem.length >= 4 && stem.endsWith('e')) stem = stem.slice(0, -1);
+	if (stem.length >= 6 && stem.endsWith('is')) stem = `${stem.slice(0, -2)}iz`;
+	return stem;
 }
 
 function measureEditDistance(a: string, b: string): number {
@@ -160,6 +241,8 @@ interface PhraseEntry {
 	weights: number[];
 	totalWeight: number;
 	negated: boolean;
+	/** Words that are neither little words nor conjunctions. */
+	contentWordCount: number;
 	conjunctions: Set<string>;
 }
 
@@ -168,6 +251,44 @@ type WordReading = ReadonlyMap<string, number>;
 const NO_READING: WordReading = new Map();
 /** Readings of words the phrases do not use are kept per edition, up to this many. */
 const MAX_CACHED_READINGS = 10_000;
+/** Longest word the typo pre-check covers: up to here a similarity of MIN_WORD_SIMILARITY allows
+ * at most two edits, and two only when both words have at least TWO_EDIT_MIN_LENGTH letters. */
+const MAX_PRECHECKED_WORD_LENGTH = 14;
+const TWO_EDIT_MIN_LENGTH = 8;
+
+/** Every string made from each word by deleting up to `edits` letters, with the words it came
+ * from. */
+function indexDeletions(words: readonly string[], edits: number): Map<string, string[]> {
+	const index = new Map<string, string[]>();
+	for (const word of words) {
+		for (const variant of listDeletions(word, edits)) {
+			const sources = index.get(variant);
+			if (sources) sources.push(word);
+			else index.set(variant, [word]);
+		}
+	}
+	return index;
+}
+
+/** The word and every string made from it by deleting up to `edits` letters. */
+function listDeletions(word: string, edits: number): string[] {
+	const found = new Set([word]);
+	let frontier = [word];
+	for (let edit = 0; edit < edits; edit++) {
+		const next: string[] = [];
+		for (const current of frontier) {
+			for (let index = 0; index < current.length; index++) {
+				const variant = current.slice(0, index) + current.slice(index + 1);
+				if (!found.has(variant)) {
+					found.add(variant);
+					next.push(variant);
+				}
+			}
+		}
+		frontier = next;
+	}
+	return [...found];
+}
 
 export interface ComplaintMatcher {
 	matchComplaint(complaint: string, skip?: ReadonlySet<string>): ComplaintMatch[];
@@ -188,6 +309,7 @@ export function buildComplaintMatcher(rulebook: Rulebook): ComplaintMatcher {
 			const tokens = tokenize(phrase.text).map((token) => token.word);
 			const words = tokens.filter((word) => !NEGATIONS.has(word));
 			if (words.length === 0) continue;
+			const negated = tokens.some((_, index) => isNegationAt(tokens, index));
 			const weights = words.map(weighWord);
 			entries.push({
 				key: observation.key,
@@ -197,35 +319,72 @@ export function buildComplaintMatcher(rulebook: Rulebook): ComplaintMatcher {
 				stems: words.map(stemWord),
 				weights,
 				totalWeight: weights.reduce((sum, weight) => sum + weight, 0),
-				negated: tokens.some((word) => NEGATIONS.has(word)),
+				negated,
+				contentWordCount: words.filter((word) => !LITTLE_WORDS.has(word) && !CONJUNCTIONS.has(word))
+					.length,
 				conjunctions: new Set(words.filter((word) => CONJUNCTIONS.has(word)))
 			});
 		}
 	}
 
-	// Content words of the phrases, by stem, and the phrases that use each.
+	// Content words of the phrases, by stem, and the phrases that use each (with the weight the
+	// word carries in that phrase). Little words and conjunctions of a phrase count as always
+	// there when deciding whether it could reach its coverage.
 	const wordsByStem = new Map<string, string[]>();
-	const entriesByWord = new Map<string, number[]>();
+	const usersByWord = new Map<string, { entryIndex: number; weight: number }[]>();
 	const knownStems = new Set<string>();
+	const freeWeights = new Float64Array(entries.length);
 	entries.forEach((entry, entryIndex) => {
 		entry.words.forEach((word, wordIndex) => {
 			knownStems.add(entry.stems[wordIndex]);
-			if (LITTLE_WORDS.has(word) || CONJUNCTIONS.has(word)) return;
+			if (LITTLE_WORDS.has(word) || CONJUNCTIONS.has(word)) {
+				freeWeights[entryIndex] += entry.weights[wordIndex];
+				return;
+			}
 			const stem = entry.stems[wordIndex];
 			const sameStem = wordsByStem.get(stem) ?? [];
 			if (!sameStem.includes(word)) sameStem.push(word);
 			wordsByStem.set(stem, sameStem);
-			const users = entriesByWord.get(word) ?? [];
-			if (users[users.length - 1] !== entryIndex) users.push(entryIndex);
-			entriesByWord.set(word, users);
+			const users = usersByWord.get(word) ?? [];
+			const last = users[users.length - 1];
+			if (last?.entryIndex === entryIndex) last.weight += entry.weights[wordIndex];
+			else users.push({ entryIndex, weight: entry.weights[wordIndex] });
+			usersByWord.set(word, users);
 		});
 	});
-	const vocabulary = new Fuse([...entriesByWord.keys()], {
-		includeScore: true,
-		ignoreLocation: true,
-		threshold: 0.35
-	});
+	const fuzzyVocabulary = [...usersByWord.keys()].filter(
+		(word) => word.length >= MIN_FUZZY_WORD_LENGTH
+	);
+	const fuseOptions = { includeScore: true, ignoreLocation: true, threshold: 0.35 };
+	const vocabulary = new Fuse(fuzzyVocabulary, fuseOptions);
+	// Two words within k edits share a string reached by at most k deletions from each, so these
+	// indexes find every phrase word a misspelling could stand for.
+	const oneEditAway = indexDeletions(fuzzyVocabulary, 1);
+	const twoEditsAway = indexDeletions(
+		fuzzyVocabulary.filter((word) => word.length >= TWO_EDIT_MIN_LENGTH),
+		2
+	);
+	const longestVocabularyWord = Math.max(0, ...fuzzyVocabulary.map((word) => word.length));
 	const cachedReadings = new Map<string, WordReading>();
+	const typoReadings = new WeakSet<WordReading>();
+
+	/** fuse.js over the phrase words that could be close enough to `word` to be its misspelling:
+	 * the same results as searching the whole vocabulary, without the cost. */
+	function searchVocabulary(word: string) {
+		if (Math.max(word.length, longestVocabularyWord) > MAX_PRECHECKED_WORD_LENGTH) {
+			return vocabulary.search(word);
+		}
+		const near = new Set<string>();
+		for (const variant of listDeletions(word, 1)) {
+			for (const known of oneEditAway.get(variant) ?? []) near.add(known);
+		}
+		if (word.length >= TWO_EDIT_MIN_LENGTH) {
+			for (const variant of listDeletions(word, 2)) {
+				for (const known of twoEditsAway.get(variant) ?? []) near.add(known);
+			}
+		}
+		return near.size === 0 ? [] : new Fuse([...near], fuseOptions).search(word);
+	}
 
 	function readWord(word: string): WordReading {
 		if (NEGATIONS.has(word) || CONJUNCTIONS.has(word) || LITTLE_WORDS.has(word)) return NO_READING;
@@ -236,21 +395,43 @@ export function buildComplaintMatcher(rulebook: Rulebook): ComplaintMatcher {
 		const cached = cachedReadings.get(word);
 		if (cached) return cached;
 		const reading = new Map<string, number>();
-		for (const result of vocabulary.search(word)) {
+		for (const result of searchVocabulary(word)) {
 			const known = result.item;
-			if (known.length < MIN_FUZZY_WORD_LENGTH) continue;
 			const similarity = measureTypoSimilarity(word, known);
 			if (similarity >= MIN_WORD_SIMILARITY) reading.set(known, similarity);
 		}
+		if (reading.size > 0) typoReadings.add(reading);
 		if (cachedReadings.size >= MAX_CACHED_READINGS) cachedReadings.clear();
 		cachedReadings.set(word, reading);
 		return reading;
 	}
 
+	/** Phrases that share words with the segment and could still reach their coverage. */
+	const reachedWeights = new Float64Array(entries.length);
+	function listCandidates(segmentReadings: readonly WordReading[]): number[] {
+		const knownWords = new Set<string>();
+		for (const reading of segmentReadings)
+			for (const known of reading.keys()) knownWords.add(known);
+		const touched: number[] = [];
+		for (const known of knownWords) {
+			for (const { entryIndex, weight } of usersByWord.get(known) ?? []) {
+				if (reachedWeights[entryIndex] === 0) touched.push(entryIndex);
+				reachedWeights[entryIndex] += weight;
+			}
+		}
+		const candidates = touched.filter(
+			(entryIndex) =>
+				reachedWeights[entryIndex] + freeWeights[entryIndex] >=
+				MIN_PHRASE_COVERAGE * entries[entryIndex].totalWeight - 1e-9
+		);
+		for (const entryIndex of touched) reachedWeights[entryIndex] = 0;
+		return candidates.sort((a, b) => a - b);
+	}
+
 	return {
 		matchComplaint(complaint, skip = new Set()) {
 			const text = complaint.slice(0, MAX_COMPLAINT_CHARS);
-			const best = new Map<string, ComplaintMatch & { position: number }>();
+			const best = new Map<string, Candidate>();
 			const readings = new Map<string, WordReading>();
 			const readCached = (word: string) => {
 				let reading = readings.get(word);
@@ -260,57 +441,107 @@ export function buildComplaintMatcher(rulebook: Rulebook): ComplaintMatcher {
 				}
 				return reading;
 			};
+			let firstTokenIndex = 0;
 			for (const segment of splitSegments(text)) {
 				const segmentReadings = segment.tokens.map((token) => readCached(token.word));
-				// Tokens read as a misspelling of some other phrase word (not by their own stem).
-				const typoTokenIndices = segment.tokens.flatMap((token, index) =>
-					[...segmentReadings[index].keys()].some((known) => stemWord(known) !== token.stem)
-						? [index]
-						: []
+				// Tokens read as a misspelling of some phrase word (not by their own stem).
+				const typoTokenIndices = segmentReadings.flatMap((reading, index) =>
+					typoReadings.has(reading) ? [index] : []
 				);
-				const candidates = new Set<number>();
-				for (const reading of segmentReadings) {
-					for (const known of reading.keys()) {
-						for (const entryIndex of entriesByWord.get(known) ?? []) candidates.add(entryIndex);
-					}
-				}
-				for (const entryIndex of [...candidates].sort((a, b) => a - b)) {
+				for (const entryIndex of listCandidates(segmentReadings)) {
 					const entry = entries[entryIndex];
-					if (skip.has(entry.key)) continue;
 					const found = findBestWindow(entry, segment, segmentReadings, typoTokenIndices);
-					if (!found) continue;
-					const windowNegated = found.negatedFrom !== null;
+					if (!found || found.negation.doubtful) continue;
+					const windowNegated = found.negation.from !== null;
 					let value = entry.value;
 					if (windowNegated !== entry.negated) {
-						// A negated enum phrase says what it is not, which picks no value.
+						// A negated enum phrase says what it is not, which picks no value. A denial
+						// of one word ("no drips") is too thin to turn round: "dripping" alone may be
+						// anything dripping.
 						if (entry.kind !== 'boolean') continue;
+						if (entry.negated && entry.contentWordCount < 2) continue;
 						value = !value;
 					}
 					const startToken =
-						segment.tokens[Math.min(found.negatedFrom ?? found.start, found.start)];
+						segment.tokens[Math.min(found.negation.from ?? found.start, found.start)];
 					const endToken = segment.tokens[found.end - 1];
-					const match = {
+					const candidate: Candidate = {
 						key: entry.key,
 						value,
 						from: text.slice(startToken.start, endToken.end),
 						score: found.score,
-						position: startToken.start
+						position: startToken.start,
+						contentTokens: found.contentTokens.map((index) => firstTokenIndex + index)
 					};
 					const current = best.get(entry.key);
-					if (
-						!current ||
-						match.score > current.score ||
-						(match.score === current.score && match.position < current.position)
-					) {
-						best.set(entry.key, match);
-					}
+					if (!current || isBetterCandidate(candidate, current)) best.set(entry.key, candidate);
 				}
+				firstTokenIndex += segment.tokens.length;
 			}
-			return [...best.values()]
+			// Answers already given still claim their words, so that the rest reads the same.
+			const kept = [...best.values()];
+			return kept
+				.filter((candidate) => !kept.some((other) => explainsCandidate(other, candidate)))
+				.filter((candidate) => !skip.has(candidate.key))
 				.sort((a, b) => a.position - b.position || (a.key < b.key ? -1 : a.key > b.key ? 1 : 0))
 				.map(({ key, value, from, score }) => ({ key, value, from, score }));
 		}
 	};
+}
+
+interface Candidate extends ComplaintMatch {
+	position: number;
+	/** Complaint tokens (numbered across segments) that stand for the phrase's content words. */
+	contentTokens: number[];
+}
+
+/** Of two readings for one observation, one that contains the other's words and more wins if it
+ * is about as good ("white smoke only on cold mornings" over "white smoke"); otherwise the
+ * higher score, then the one that accounts for more words ("thermostat stuck open" over "stuck
+ * thermostat"), then the earlier one. */
+function isBetterCandidate(candidate: Candidate, current: Candidate): boolean {
+	if (containsWords(candidate, current)) {
+		return candidate.score >= current.score - SUBSUMING_SCORE_SLACK;
+	}
+	if (containsWords(current, candidate)) {
+		return current.score < candidate.score - SUBSUMING_SCORE_SLACK;
+	}
+	if (candidate.score !== current.score) return candidate.score > current.score;
+	if (candidate.contentTokens.length !== current.contentTokens.length) {
+		return candidate.contentTokens.length > current.contentTokens.length;
+	}
+	return candidate.position < current.position;
+}
+
+/** Whether `outer` stands on every content word of `inner` and on more. */
+function containsWords(outer: Candidate, inner: Candidate): boolean {
+	return (
+		inner.contentTokens.length > 0 &&
+		outer.contentTokens.length > inner.contentTokens.length &&
+		inner.contentTokens.every((index) => outer.contentTokens.includes(index))
+	);
+}
+
+/**
+ * Two observations should not both be read from the same words. A match whose content words all
+ * lie inside another observation's match of more words says nothing of its own: "white smoke that
+ * smells sweet" is exhaust smoke, not a smell under the bonnet; "overheats sitting in traffic" is
+ * the gauge pattern, not a bare "overheats". Matches that share two or more content words are
+ * rival readings of one statement, and the better one stands ("top radiator hose is leaking" is a
+ * leak, not a hot hose with one word missing; "coolant in the oil" is not "oil in the coolant").
+ * Readings of exactly the same words that score the same both stand ("boiled over").
+ */
+function explainsCandidate(other: Candidate, candidate: Candidate): boolean {
+	if (other.key === candidate.key) return false;
+	if (containsWords(other, candidate)) {
+		return other.score >= candidate.score - SUBSUMING_SCORE_SLACK;
+	}
+	if (containsWords(candidate, other)) return false;
+	let shared = 0;
+	for (const index of candidate.contentTokens) {
+		if (other.contentTokens.includes(index)) shared++;
+	}
+	return shared >= MIN_SHARED_WORDS_FOR_RIVALS && other.score > candidate.score;
 }
 
 interface SegmentToken extends Token {
@@ -319,6 +550,7 @@ interface SegmentToken extends Token {
 
 interface Segment {
 	tokens: SegmentToken[];
+	words: string[];
 	tokenIndicesByStem: Map<string, number[]>;
 	/** Index of the first token of the clause each token belongs to (clauses end at and/but). */
 	clauseStart: number[];
@@ -346,17 +578,37 @@ function splitSegments(text: string): Segment[] {
 			if (sameStem) sameStem.push(index);
 			else tokenIndicesByStem.set(token.stem, [index]);
 		});
-		segments.push({ tokens, tokenIndicesByStem, clauseStart });
+		segments.push({
+			tokens,
+			words: tokens.map((token) => token.word),
+			tokenIndicesByStem,
+			clauseStart
+		});
 	}
 	return segments;
+}
+
+/** A negation word, unless it opens a doubt ("not sure", "no idea") or speaks of the past
+ * ("never used to"). */
+function isNegationAt(words: readonly string[], index: number): boolean {
+	const next = words[index + 1] ?? '';
+	return NEGATIONS.has(words[index]) && !HEDGES.has(next) && !PAST_HABITS.has(next);
+}
+
+interface NegationReach {
+	/** Index of the negation word that reaches the window, or null. */
+	from: number | null;
+	/** The window sits in a doubt ("not sure if …"): it says neither yes nor no. */
+	doubtful: boolean;
 }
 
 interface WindowMatch {
 	start: number;
 	end: number;
 	score: number;
-	/** Index of the negation word that reaches this window, or null. */
-	negatedFrom: number | null;
+	negation: NegationReach;
+	/** Segment token indices standing for the phrase's content (not little) words. */
+	contentTokens: number[];
 }
 
 /** How well complaint token `token` stands for phrase word `wordIndex` of `entry` (0..1). */
@@ -380,19 +632,18 @@ function findBestWindow(
 	readings: WordReading[],
 	typoTokenIndices: readonly number[]
 ): WindowMatch | null {
-	// Most candidates share one common word with the segment: skip those that could not reach the
-	// coverage even if every little word of theirs were there too.
+	// The candidate list counted the phrase's little words as there; a window can only cover
+	// those the segment has.
 	let reachableWeight = 0;
 	entry.words.forEach((word, wordIndex) => {
 		if (
-			LITTLE_WORDS.has(word) ||
 			segment.tokenIndicesByStem.has(entry.stems[wordIndex]) ||
-			typoTokenIndices.some((index) => readings[index].has(word))
+			(!LITTLE_WORDS.has(word) && typoTokenIndices.some((index) => readings[index].has(word)))
 		) {
 			reachableWeight += entry.weights[wordIndex];
 		}
 	});
-	if (reachableWeight < MIN_PHRASE_COVERAGE * entry.totalWeight) return null;
+	if (reachableWeight < MIN_PHRASE_COVERAGE * entry.totalWeight - 1e-9) return null;
 	const anchorSet = new Set<number>();
 	for (const stem of entry.stems) {
 		for (const index of segment.tokenIndicesByStem.get(stem) ?? []) anchorSet.add(index);
@@ -404,27 +655,41 @@ function findBestWindow(
 		.filter((index) => !NEGATIONS.has(segment.tokens[index].word))
 		.sort((a, b) => a - b);
 	const maxLength = entry.words.length + EXTRA_WINDOW_WORDS;
+	const matchedAt: number[] = new Array(entry.words.length);
 	let best: WindowMatch | null = null;
 	for (let first = 0; first < anchors.length; first++) {
 		const start = anchors[first];
 		for (let last = first; last < anchors.length; last++) {
 			const end = anchors[last] + 1;
 			if (end - start > maxLength) break;
-			const score = scoreWindow(entry, segment, start, end, readings);
+			const score = scoreWindow(entry, segment, start, end, readings, matchedAt);
 			if (score === null || (best && score <= best.score)) continue;
-			best = { start, end, score, negatedFrom: findNegation(segment, start, end) };
+			best = {
+				start,
+				end,
+				score,
+				negation: findNegation(segment, start, end),
+				contentTokens: matchedAt.filter(
+					(index, wordIndex) => index >= 0 && !LITTLE_WORDS.has(entry.words[wordIndex])
+				)
+			};
 		}
 	}
 	return best;
 }
 
-/** Recall-weighted F-score (β = 2) of phrase words found in the window, or null if too weak. */
+/**
+ * Recall-weighted F-score (β = 2) of phrase words found in the window, less a little for each
+ * pair of content words said in the other order, or null if too weak. `matchedAt` receives the
+ * token index standing for each phrase word (-1 for none).
+ */
 function scoreWindow(
 	entry: PhraseEntry,
 	segment: Segment,
 	start: number,
 	end: number,
-	readings: WordReading[]
+	readings: WordReading[],
+	matchedAt: number[]
 ): number | null {
 	const used = new Uint8Array(end - start);
 	let windowWeight = 0;
@@ -447,6 +712,7 @@ function scoreWindow(
 				if (fit === 1) break;
 			}
 		}
+		matchedAt[wordIndex] = bestAt;
 		if (bestAt >= 0) {
 			used[bestAt - start] = 1;
 			matchedWeight += bestFit * entry.weights[wordIndex];
@@ -456,16 +722,40 @@ function scoreWindow(
 	const recall = matchedWeight / entry.totalWeight;
 	const precision = matchedWeight / windowWeight;
 	if (recall < MIN_PHRASE_COVERAGE || precision === 0) return null;
-	const score = (5 * precision * recall) / (4 * precision + recall);
+	const score =
+		((5 * precision * recall) / (4 * precision + recall)) *
+		(1 - ORDER_PENALTY * countSwappedPairs(entry, matchedAt));
 	return score >= MIN_SCORE ? Math.min(1, score) : null;
 }
 
-/** A negation inside the window, or up to a few words before it in the same clause. */
-function findNegation(segment: Segment, start: number, end: number): number | null {
-	const { tokens, clauseStart } = segment;
+/** Pairs of the phrase's content words that the window says in the opposite order. */
+function countSwappedPairs(entry: PhraseEntry, matchedAt: readonly number[]): number {
+	let swapped = 0;
+	for (let i = 0; i < matchedAt.length; i++) {
+		if (matchedAt[i] < 0 || LITTLE_WORDS.has(entry.words[i])) continue;
+		for (let j = i + 1; j < matchedAt.length; j++) {
+			if (matchedAt[j] >= 0 && !LITTLE_WORDS.has(entry.words[j]) && matchedAt[j] < matchedAt[i]) {
+				swapped++;
+			}
+		}
+	}
+	return swapped;
+}
+
+/**
+ * A negation inside the window, or up to a few words before it in the same clause. A doubt
+ * earlier in the clause ("not sure if", "don't know whether") leaves the window unanswered.
+ */
+function findNegation(segment: Segment, start: number, end: number): NegationReach {
+	const { words, clauseStart } = segment;
+	let doubting = false;
+	for (let index = clauseStart[start]; index < start; index++) {
+		if (NEGATIONS.has(words[index]) && HEDGES.has(words[index + 1] ?? '')) doubting = true;
+		else if (doubting && DOUBT_OPENERS.has(words[index])) return { from: null, doubtful: true };
+	}
 	const from = Math.max(clauseStart[start], start - NEGATION_REACH_WORDS);
 	for (let index = from; index < end; index++) {
-		if (NEGATIONS.has(tokens[index].word)) return index;
+		if (isNegationAt(words, index)) return { from: index, doubtful: false };
 	}
-	return null;
+	return { from: null, doubtful: false };
 }

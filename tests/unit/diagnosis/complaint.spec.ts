@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { createDiagnoser } from '../../../src/lib/diagnosis';
-import { makeCoolingRulebook } from './factories';
+import { createDiagnoser, type Phrase, type Rulebook } from '../../../src/lib/diagnosis';
+import { makeBooleanObservation, makeCoolingRulebook, makeEnumObservation } from './factories';
 
 // The phrases are the cooling fixture's (invented); the complaints are what customers say.
 const diagnoser = createDiagnoser(makeCoolingRulebook());
@@ -101,6 +101,181 @@ describe('complaint matching', () => {
 	it('quotes the customer’s own text, capitals and curly apostrophes included', () => {
 		expect(match('The fan doesn’t come on!')).toMatchObject([
 			{ key: 'fan_runs_when_hot', value: false, from: 'fan doesn’t come on' }
+		]);
+	});
+});
+
+/** The cooling fixture with its phrases replaced for the observations named, plus two invented
+ * observations (oil and coolant look, a hot top hose, a leak place) for the look-alike wordings. */
+function makeMatcherRulebook(phrases: Record<string, Phrase[]>): Rulebook {
+	const rulebook = makeCoolingRulebook();
+	rulebook.observations.push(
+		makeBooleanObservation({ key: 'oil_milky', group: 'inspection' }),
+		makeEnumObservation({
+			key: 'coolant_condition',
+			values: ['clean', 'oily_film'],
+			group: 'inspection',
+			frequencies: { clean: 0.8, oily_film: 0.2 }
+		}),
+		makeBooleanObservation({ key: 'upper_hose_cool_when_hot', group: 'inspection' }),
+		makeEnumObservation({
+			key: 'visible_leak',
+			values: ['none', 'hose_or_clamp'],
+			group: 'inspection',
+			frequencies: { none: 0.5, hose_or_clamp: 0.5 }
+		})
+	);
+	for (const observation of rulebook.observations) {
+		observation.phrases = phrases[observation.key] ?? observation.phrases;
+	}
+	return rulebook;
+}
+
+function matchWith(phrases: Record<string, Phrase[]>, complaint: string) {
+	return createDiagnoser(makeMatcherRulebook(phrases)).matchComplaint(complaint);
+}
+
+describe('complaint matching: grammar', () => {
+	it('reads a contraction as its verb and "not", with or without the apostrophe', () => {
+		const phrases = { fan_runs_when_hot: [{ text: 'fan does not come on', value: false }] };
+		for (const complaint of [
+			"the fan doesn't come on",
+			'fan doesnt come on',
+			'the fan won’t come on',
+			'the fan cannot come on'
+		]) {
+			expect(matchWith(phrases, complaint), complaint).toMatchObject([
+				{ key: 'fan_runs_when_hot', value: false }
+			]);
+		}
+		expect(matchWith(phrases, 'the fan does come on')).toMatchObject([
+			{ key: 'fan_runs_when_hot', value: true }
+		]);
+	});
+
+	it('matches other endings of the same word: idle and idling, drip and dripping', () => {
+		expect(match('it overheats at idle')).toMatchObject([
+			{ key: 'temp_gauge', value: 'high_at_idle' }
+		]);
+		expect(match('coolant drips on the ground')).toMatchObject([
+			{ key: 'puddle_under_vehicle', value: true }
+		]);
+	});
+
+	it('reads "not sure if" and "don’t know whether" as no answer, not as a denial', () => {
+		expect(match('not sure if the fan kicks in')).toEqual([]);
+		expect(match("I don't know whether it's losing water")).toEqual([]);
+		// A doubt about why is no doubt about what.
+		expect(match('no idea why it gets hot in traffic')).toMatchObject([
+			{ key: 'temp_gauge', value: 'high_at_idle' }
+		]);
+	});
+
+	it('takes "nothing" as a negation and "never used to" as no denial of now', () => {
+		expect(match('nothing leaks on the drive')).toMatchObject([
+			{ key: 'puddle_under_vehicle', value: false }
+		]);
+		expect(match('it never used to keep losing coolant')).toMatchObject([
+			{ key: 'level_drops_between_checks', value: true }
+		]);
+	});
+
+	it('never turns a one-word denial round: "no drips" says nothing about "dripping"', () => {
+		const phrases = { puddle_under_vehicle: [{ text: 'no drips', value: false }] };
+		expect(matchWith(phrases, 'the tap is dripping')).toEqual([]);
+		expect(matchWith(phrases, 'there are no drips')).toMatchObject([
+			{ key: 'puddle_under_vehicle', value: false }
+		]);
+	});
+});
+
+describe('complaint matching: rival readings', () => {
+	it('lets a phrase that says more win over a shorter one of the same observation', () => {
+		const phrases = {
+			exhaust_smoke: [
+				{ text: 'white smoke', value: 'white_persistent' },
+				{ text: 'white smoke on cold mornings', value: 'white_at_cold_start_only' }
+			]
+		};
+		expect(matchWith(phrases, 'white smoke on cold mornings')).toMatchObject([
+			{ key: 'exhaust_smoke', value: 'white_at_cold_start_only' }
+		]);
+		expect(matchWith(phrases, 'white smoke from the back')).toMatchObject([
+			{ key: 'exhaust_smoke', value: 'white_persistent' }
+		]);
+		const thermostat = {
+			temp_gauge: [
+				{ text: 'stuck thermostat', value: 'high_always' },
+				{ text: 'thermostat stuck open', value: 'normal' }
+			]
+		};
+		expect(matchWith(thermostat, 'thermostat stuck open')).toMatchObject([
+			{ key: 'temp_gauge', value: 'normal' }
+		]);
+	});
+
+	it('reads no second observation from words a longer match already explains', () => {
+		const phrases = {
+			sweet_smell: [{ text: 'smells sweet', value: 'engine_bay' }],
+			exhaust_smoke: [{ text: 'exhaust smells sweet', value: 'white_persistent' }]
+		};
+		expect(matchWith(phrases, 'the exhaust smells sweet')).toEqual([
+			{ key: 'exhaust_smoke', value: 'white_persistent', from: 'exhaust smells sweet', score: 1 }
+		]);
+		expect(matchWith(phrases, 'it smells sweet after a drive')).toMatchObject([
+			{ key: 'sweet_smell', value: 'engine_bay' }
+		]);
+	});
+
+	it('lets an observation already answered keep its words from another reading', () => {
+		const diagnoser = createDiagnoser(
+			makeMatcherRulebook({
+				sweet_smell: [{ text: 'smells sweet', value: 'engine_bay' }],
+				exhaust_smoke: [{ text: 'exhaust smells sweet', value: 'white_persistent' }]
+			})
+		);
+		// The technician has answered the smoke question; the smell is still the exhaust's.
+		expect(
+			diagnoser.matchComplaint('the exhaust smells sweet', new Set(['exhaust_smoke']))
+		).toEqual([]);
+	});
+
+	it('tells "coolant in the oil" from "oil in the coolant" by word order', () => {
+		const phrases = {
+			oil_milky: [{ text: 'coolant in the oil', value: true }],
+			coolant_condition: [{ text: 'oil in the coolant', value: 'oily_film' }]
+		};
+		expect(matchWith(phrases, 'there is coolant in the oil')).toEqual([
+			{ key: 'oil_milky', value: true, from: 'coolant in the oil', score: 1 }
+		]);
+		expect(matchWith(phrases, 'I found oil in the coolant')).toEqual([
+			{ key: 'coolant_condition', value: 'oily_film', from: 'oil in the coolant', score: 1 }
+		]);
+	});
+
+	it('keeps the better of two readings that share words', () => {
+		const phrases = {
+			upper_hose_cool_when_hot: [{ text: 'top radiator hose is hot', value: false }],
+			visible_leak: [{ text: 'radiator hose leaking', value: 'hose_or_clamp' }]
+		};
+		// Three of the four words of the hot-hose phrase are there, but the leak reads them all.
+		expect(matchWith(phrases, 'the top radiator hose is leaking')).toMatchObject([
+			{ key: 'visible_leak', value: 'hose_or_clamp' }
+		]);
+		expect(matchWith(phrases, 'the top radiator hose is leaking')).toHaveLength(1);
+		expect(matchWith(phrases, 'top radiator hose is hot')).toMatchObject([
+			{ key: 'upper_hose_cool_when_hot', value: false }
+		]);
+	});
+
+	it('keeps two observations read from exactly the same words when they score the same', () => {
+		const phrases = {
+			puddle_under_vehicle: [{ text: 'boiled over', value: true }],
+			windscreen_film: [{ text: 'boiled over', value: true }]
+		};
+		expect(matchWith(phrases, 'it boiled over').map((item) => item.key)).toEqual([
+			'puddle_under_vehicle',
+			'windscreen_film'
 		]);
 	});
 });
