@@ -4,11 +4,14 @@ import { SESSION_COOKIE, validateSessionToken } from '$lib/server/auth/session';
 import { getConfig } from '$lib/server/config';
 import { prepare } from '$lib/server/db';
 import { seedOnStart } from '$lib/server/seed';
+import { startHousekeeping, sweepExpired } from '$lib/server/housekeeping';
 
 export const init: ServerInit = async () => {
 	getConfig(); // fail fast on a bad setting
 	await prepare();
 	await seedOnStart();
+	await sweepExpired();
+	startHousekeeping();
 };
 
 const requestId: Handle = async ({ event, resolve }) => {
