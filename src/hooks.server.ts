@@ -44,7 +44,29 @@ const securityHeaders: Handle = async ({ event, resolve }) => {
 	return response;
 };
 
-export const handle = sequence(requestId, securityHeaders, authenticate);
+/**
+ * The v1 API may be called from a shop's own website (its intake form) in the browser. Any origin
+ * may call it with an API key; `*` never carries cookies, so a session cannot be used
+ * cross-site (and SameSite=Lax keeps the cookie off cross-site posts anyway).
+ */
+const CORS_HEADERS = {
+	'access-control-allow-origin': '*',
+	'access-control-allow-methods': 'GET, POST, OPTIONS',
+	'access-control-allow-headers': 'authorization, content-type',
+	'access-control-expose-headers': 'retry-after, x-request-id',
+	'access-control-max-age': '600'
+};
+
+const cors: Handle = async ({ event, resolve }) => {
+	if (!event.url.pathname.startsWith('/api/v1/')) return resolve(event);
+	if (event.request.method === 'OPTIONS')
+		return new Response(null, { status: 204, headers: CORS_HEADERS });
+	const response = await resolve(event);
+	for (const [name, value] of Object.entries(CORS_HEADERS)) response.headers.set(name, value);
+	return response;
+};
+
+export const handle = sequence(requestId, securityHeaders, cors, authenticate);
 
 /** The unexpected: logged with the request id, shown to the person as a plain message with the id. */
 export const handleError: HandleServerError = ({ error, event, status, message }) => {

@@ -207,3 +207,26 @@ describe('GET /api/v1/openapi.json', () => {
 		}
 	});
 });
+
+describe('calling the API from a shop website in the browser', () => {
+	it('answers the CORS preflight and marks responses readable by any origin, without credentials', async () => {
+		const preflight = await fetch(`${newClient().baseUrl}/api/v1/diagnose`, {
+			method: 'OPTIONS',
+			headers: {
+				origin: 'https://intake.cinderhill.example',
+				'access-control-request-method': 'POST',
+				'access-control-request-headers': 'authorization, content-type'
+			}
+		});
+		expect(preflight.status).toBe(204);
+		expect(preflight.headers.get('access-control-allow-origin')).toBe('*');
+		expect(preflight.headers.get('access-control-allow-headers')).toContain('authorization');
+		expect(preflight.headers.get('access-control-allow-credentials')).toBeNull();
+		const res = await diagnose(
+			{ observations: {} },
+			{ ...auth, origin: 'https://intake.cinderhill.example' }
+		);
+		expect(res.status).toBe(200);
+		expect(res.headers.get('access-control-allow-origin')).toBe('*');
+	});
+});
