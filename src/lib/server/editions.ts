@@ -1,7 +1,7 @@
 import { and, desc, eq, sql } from 'drizzle-orm';
 import { createDiagnoser, type Diagnoser } from '../diagnosis';
 import { loadRulebookFromDir } from '../diagnosis/load';
-import { parseRulebook, type Rulebook } from '../diagnosis/schema';
+import type { Rulebook } from '../diagnosis/schema';
 import { db } from './db';
 import { rulebookEditions } from './db/schema';
 import { auditInsert } from './audit';
@@ -85,16 +85,11 @@ export async function getPublishedEdition(shopId: string): Promise<PublishedEdit
 			.select({ content: rulebookEditions.content })
 			.from(rulebookEditions)
 			.where(eq(rulebookEditions.id, row.id));
-		const parsed = parseRulebook(content);
-		if (!parsed.ok) {
-			throw new Error(`Edition ${row.id} fails validation: ${JSON.stringify(parsed.issues)}`);
-		}
-		compiled = {
-			rulebook: parsed.rulebook,
-			diagnoser: createDiagnoser(parsed.rulebook, {
-				evaluator: getConfig().DIAGNOSIS_EVALUATOR
-			})
-		};
+		// createDiagnoser validates the stored content against rulebookSchema and throws if it fails.
+		const diagnoser = createDiagnoser(content as Rulebook, {
+			evaluator: getConfig().DIAGNOSIS_EVALUATOR
+		});
+		compiled = { rulebook: diagnoser.rulebook, diagnoser };
 		if (diagnosers.size >= MAX_CACHED_EDITIONS) {
 			diagnosers.delete(diagnosers.keys().next().value!);
 		}
