@@ -52,6 +52,20 @@ describe('the SQLite database through libSQL', () => {
 		expect(String(failure?.cause ?? failure)).toMatch(/FOREIGN KEY/);
 	});
 
+	it('configures every connection of the pool, not only the first', async () => {
+		const db = await freshDatabase();
+		// A transaction holds one connection; queries started in the same tick each borrow
+		// another, so the pool opens new ones.
+		const tx = await db.$client.transaction('write');
+		const settings = await Promise.all(
+			['synchronous', 'foreign_keys', 'busy_timeout', 'synchronous'].map((name) => pragma(db, name))
+		);
+		await tx.rollback();
+		// synchronous 1 = NORMAL (sqlite.org/pragma.html#pragma_synchronous); 2 = FULL would fsync
+		// the WAL on every commit.
+		expect(settings).toEqual([1, 1, 5000, 1]);
+	});
+
 	it('loses no row when many writers insert at once', async () => {
 		const db = await freshDatabase();
 		await db.insert(shops).values({ id: 'busy', name: 'Busy Bay Garage' });
