@@ -5,6 +5,7 @@ import { getConfig } from '$lib/server/config';
 import { prepare } from '$lib/server/db';
 import { seedOnStart } from '$lib/server/seed';
 import { startHousekeeping, sweepExpired } from '$lib/server/housekeeping';
+import { apiRateCounter } from '$lib/server/auth/rate-limit';
 
 export const init: ServerInit = async () => {
 	getConfig(); // fail fast on a bad setting
@@ -12,6 +13,12 @@ export const init: ServerInit = async () => {
 	await seedOnStart();
 	await sweepExpired();
 	startHousekeeping();
+	// adapter-node's graceful stop: write the last API hits before the process ends.
+	process.once('sveltekit:shutdown', () => {
+		apiRateCounter()
+			.close()
+			.catch((error) => console.error('writing API rate counters failed', error));
+	});
 };
 
 const requestId: Handle = async ({ event, resolve }) => {

@@ -43,6 +43,8 @@ export const configSchema = z.object({
 		.optional(),
 	API_RATE_LIMIT_PER_MINUTE: positiveInt(600),
 	API_IP_RATE_LIMIT_PER_MINUTE: positiveInt(1200),
+	/** How often each server adds its API hits to the shared counters in the database. */
+	RATE_LIMIT_SYNC_MS: positiveInt(1000),
 	LOGIN_MAX_ATTEMPTS: positiveInt(5),
 	SIGNUP_LIMIT_PER_HOUR: positiveInt(10),
 	/**

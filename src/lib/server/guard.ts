@@ -1,6 +1,6 @@
 import { error, redirect, type RequestEvent } from '@sveltejs/kit';
 import { authenticateApiKey } from './auth/api-keys';
-import { hitRateLimits } from './auth/rate-limit';
+import { apiRateCounter } from './auth/rate-limit';
 import { can, type Permission } from './auth/roles';
 import type { SessionUser } from './auth/session';
 import { getConfig } from './config';
@@ -69,7 +69,7 @@ export async function authenticateApi(
 	const config = getConfig();
 	const caller = await identifyCaller(event, permission);
 	// Refused requests count against their address too (that is what slows key guessing);
-	// accepted ones also against their key or user. One write for both.
+	// accepted ones also against their key or user.
 	const buckets = [
 		{ key: `api:ip:${clientIp(event)}`, limit: config.API_IP_RATE_LIMIT_PER_MINUTE }
 	];
@@ -77,7 +77,7 @@ export async function authenticateApi(
 		const key = caller.apiKeyId ? `api:key:${caller.apiKeyId}` : `api:user:${caller.userId}`;
 		buckets.push({ key, limit: config.API_RATE_LIMIT_PER_MINUTE });
 	}
-	const limit = await hitRateLimits(buckets, 60);
+	const limit = apiRateCounter().hit(buckets);
 	if (!limit.allowed) {
 		throw new AppError('rate_limited', 'Too many requests; slow down.', {
 			retryAfterS: limit.retryAfterS

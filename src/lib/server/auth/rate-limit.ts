@@ -1,6 +1,8 @@
 import { eq, sql } from 'drizzle-orm';
+import { getConfig } from '../config';
 import { db } from '../db';
 import { rateLimits } from '../db/schema';
+import { createRateCounter, type RateCounter } from './rate-counter';
 
 const nowS = () => Math.floor(Date.now() / 1000);
 
@@ -38,9 +40,9 @@ function prepareUpsert(n: number) {
 }
 
 /**
- * Counts a hit in each bucket with one atomic statement (one commit), so the API counts a request
- * per address and per key in a single write. Counters live in the database so several app
- * servers share them. Returns the tightest answer.
+ * Counts a hit in each bucket with one atomic statement (one commit). Counters live in the
+ * database so several app servers share them. Returns the tightest answer. For sign-in, sign-up
+ * and reset, where every attempt must count at once; the API uses `apiRateCounter`.
  */
 export async function hitRateLimits(
 	buckets: { key: string; limit: number }[],
@@ -64,6 +66,18 @@ export async function hitRateLimits(
 
 export function hitRateLimit(key: string, limit: number, windowS: number, now = nowS()) {
 	return hitRateLimits([{ key, limit }], windowS, now);
+}
+
+let apiCounter: RateCounter | undefined;
+
+/** The API's per-minute counters per address and per key: see `createRateCounter`. */
+export function apiRateCounter(): RateCounter {
+	apiCounter ??= createRateCounter(db, {
+		windowS: 60,
+		syncMs: getConfig().RATE_LIMIT_SYNC_MS,
+		onError: (error) => console.error('writing API rate counters failed', error)
+	});
+	return apiCounter;
 }
 
 /** Failed sign-ins: counted per account and per IP; the lock grows with each failure, never permanent. */
