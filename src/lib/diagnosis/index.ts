@@ -50,6 +50,10 @@ export interface DiagnoseOptions {
 	evaluator?: Evaluator;
 	/** Answer frequencies for look-ahead, replacing the rulebook's per observation. */
 	frequencies?: FrequencyOverrides;
+	/** `diagnose` only: how many next questions to describe, best first. Default: all. */
+	questionLimit?: number;
+	/** `diagnose` only: include each test's steps (default true). */
+	testSteps?: boolean;
 }
 
 export interface DiagnoserOptions {
@@ -65,10 +69,12 @@ export interface DiagnosedCause {
 	evidence: Evidence[];
 }
 
+export type DiagnosedTest = Omit<PlannedTest, 'steps'> & { steps?: string[] };
+
 export interface Diagnosis {
 	causes: DiagnosedCause[];
 	nextQuestions: NextQuestion[];
-	tests: PlannedTest[];
+	tests: DiagnosedTest[];
 	matched: ComplaintMatch[];
 	cautions: string[];
 }
@@ -163,7 +169,8 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 			compiled,
 			{ facts, fired, logOdds },
 			unknown,
-			runOptions.frequencies ?? options.frequencies
+			runOptions.frequencies ?? options.frequencies,
+			runOptions.questionLimit
 		);
 		const tests = planTests(
 			compiled,
@@ -199,20 +206,38 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 		rulebook: book,
 		analyse,
 		async diagnose(input, runOptions) {
+			// `analyse` lists every question; a response needs only the best few described.
 			const analysis = await score(input, runOptions);
+			const withSteps = runOptions?.testSteps ?? true;
+			const causes: DiagnosedCause[] = analysis.causes.map((cause) => ({
+				key: cause.key,
+				name: cause.name,
+				probability: roundTo(cause.probability, 4),
+				band: cause.band,
+				evidence: cause.evidence
+			}));
+			for (const question of analysis.nextQuestions) {
+				question.expectedGain = roundGainBits(question.expectedGain);
+			}
+			const tests = analysis.tests.map((test): DiagnosedTest => {
+				const shown: DiagnosedTest = {
+					key: test.key,
+					name: test.name,
+					minutes: test.minutes,
+					targets: test.targets,
+					priority: test.priority,
+					cautions: test.cautions,
+					equipment: test.equipment,
+					sets: test.sets,
+					score: roundTo(test.score, 6)
+				};
+				if (withSteps) shown.steps = test.steps;
+				return shown;
+			});
 			return {
-				causes: analysis.causes.map((cause) => ({
-					key: cause.key,
-					name: cause.name,
-					probability: roundTo(cause.probability, 4),
-					band: cause.band,
-					evidence: cause.evidence
-				})),
-				nextQuestions: analysis.nextQuestions.map((question) => ({
-					...question,
-					expectedGain: roundGainBits(question.expectedGain)
-				})),
-				tests: analysis.tests.map((test) => ({ ...test, score: roundTo(test.score, 6) })),
+				causes,
+				nextQuestions: analysis.nextQuestions,
+				tests,
 				matched: analysis.matched.map((match) => ({ ...match, score: roundTo(match.score, 4) })),
 				cautions: analysis.cautions
 			};

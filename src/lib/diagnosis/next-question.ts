@@ -150,7 +150,8 @@ export function prepareLookAhead(compiled: CompiledRulebook): ObservationLookAhe
 }
 
 /**
- * Expected entropy reduction of every observation that is neither answered nor excluded.
+ * Expected entropy reduction of every observation that is neither answered nor excluded, most
+ * informative first; only the best `limit` are described and returned (all by default).
  * Only the rules that mention the observation can change (their effects on one-observation
  * rules are looked up, the others re-evaluated with compiled predicates), and only their causes'
  * log-odds move, so no engine run happens per hypothetical answer.
@@ -159,17 +160,24 @@ export function planNextQuestions(
 	compiled: CompiledRulebook,
 	state: LookAheadState,
 	excluded: ReadonlySet<string>,
-	overrides?: FrequencyOverrides
+	overrides?: FrequencyOverrides,
+	limit = Infinity
 ): NextQuestion[] {
 	const { facts, fired, logOdds } = state;
 	const lookAhead = prepareLookAhead(compiled);
+	const observations = compiled.rulebook.observations;
 	const causeCount = compiled.causes.length;
-	const entropy = Float64Array.from(logOdds, (value) => binaryEntropyBits(logistic(value)));
+	const entropy = new Float64Array(causeCount);
+	for (let causeIndex = 0; causeIndex < causeCount; causeIndex++) {
+		entropy[causeIndex] = binaryEntropyBits(logistic(logOdds[causeIndex]));
+	}
 	const delta = new Float64Array(causeCount);
 	const isTouched = new Uint8Array(causeCount);
 	const touched: number[] = [];
 	const live: CompiledRule[] = [];
-	const questions: NextQuestion[] = [];
+	const asked: number[] = [];
+	const gains = new Float64Array(observations.length);
+	const shownGains = new Float64Array(observations.length);
 	const shift = (causeIndex: number, lnLr: number) => {
 		if (isTouched[causeIndex] === 0) {
 			isTouched[causeIndex] = 1;
@@ -178,8 +186,9 @@ export function planNextQuestions(
 		delta[causeIndex] += lnLr;
 	};
 
-	compiled.rulebook.observations.forEach((observation, observationIndex) => {
-		if (facts[observationIndex] !== undefined || excluded.has(observation.key)) return;
+	for (let observationIndex = 0; observationIndex < observations.length; observationIndex++) {
+		const observation = observations[observationIndex];
+		if (facts[observationIndex] !== undefined || excluded.has(observation.key)) continue;
 		const { singleFactShifts, sharedRules } = lookAhead[observationIndex];
 		// Shared rules that can start firing on this answer: not firing yet (one more answer
 		// never stops a rule firing, since no leaf holds on an unanswered observation), and not
@@ -217,17 +226,24 @@ export function planNextQuestions(
 			touched.length = 0;
 			expectedGain += options[optionIndex].probability * reduction;
 		}
-		questions.push(describeQuestion(observation, expectedGain));
-	});
-	const shownGains = new Map(
-		questions.map((question) => [question, roundGainBits(question.expectedGain)])
-	);
+		gains[observationIndex] = expectedGain;
+		shownGains[observationIndex] = roundGainBits(expectedGain);
+		asked.push(observationIndex);
+	}
 	// Order by what the caller will see (4 decimals), so equal shown gains list by key.
-	return questions.sort(
-		(a, b) =>
-			(shownGains.get(b) as number) - (shownGains.get(a) as number) ||
-			(a.key < b.key ? -1 : a.key > b.key ? 1 : 0)
-	);
+	asked.sort((a, b) => {
+		if (shownGains[a] !== shownGains[b]) return shownGains[b] - shownGains[a];
+		const keyA = observations[a].key;
+		const keyB = observations[b].key;
+		return keyA < keyB ? -1 : keyA > keyB ? 1 : 0;
+	});
+	const count = Math.min(asked.length, limit);
+	const questions: NextQuestion[] = new Array(count);
+	for (let rank = 0; rank < count; rank++) {
+		const observationIndex = asked[rank];
+		questions[rank] = describeQuestion(observations[observationIndex], gains[observationIndex]);
+	}
+	return questions;
 }
 
 export function roundGainBits(gain: number): number {

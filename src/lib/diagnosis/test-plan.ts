@@ -58,7 +58,7 @@ export function planTests(
 	causeOrder: readonly number[],
 	isSettled: (observationKey: string) => boolean
 ): PlannedTest[] {
-	const planned: Omit<PlannedTest, 'priority'>[] = [];
+	const planned: PlannedTest[] = [];
 	for (const test of compiled.rulebook.tests) {
 		if (isSettled(test.sets)) continue;
 		const isTarget = testTargets.get(test.key);
@@ -78,9 +78,11 @@ export function planTests(
 			equipment: test.equipment,
 			steps: test.steps,
 			sets: test.sets,
-			score: mass / test.minutes
+			score: mass / test.minutes,
+			priority: 0
 		});
 	}
 	planned.sort((a, b) => b.score - a.score || compareKeys(a.key, b.key));
-	return planned.map((test, index) => ({ ...test, priority: index + 1 }));
+	planned.forEach((test, index) => (test.priority = index + 1));
+	return planned;
 }

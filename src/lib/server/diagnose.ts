@@ -31,11 +31,16 @@ export async function diagnoseForShop(caller: ApiCaller, request: DiagnoseReques
 	if (issues.length) {
 		throw new AppError('invalid_request', 'Some observations are not understood.', { issues });
 	}
-	const diagnosis = await edition.diagnoser.diagnose({
-		observations: request.observations,
-		unknown: request.unknown,
-		complaint: request.complaint
-	});
+	const diagnosis = await edition.diagnoser.diagnose(
+		{
+			observations: request.observations,
+			unknown: request.unknown,
+			complaint: request.complaint
+		},
+		// The contract promises at least the best five questions; ten keep the answer small for
+		// intake forms. Test steps are for the bay, not for an intake form.
+		{ questionLimit: NEXT_QUESTIONS_IN_RESPONSE, testSteps: false }
+	);
 	let caseId: string | null = null;
 	if (request.saveAsCase) {
 		caseId = generateId();
@@ -56,9 +61,6 @@ export async function diagnoseForShop(caller: ApiCaller, request: DiagnoseReques
 	return {
 		rulebook: { edition: edition.number, publishedAt: edition.publishedAt?.toISOString() ?? null },
 		...diagnosis,
-		// The contract promises at least the best five; ten keep the answer small for intake forms.
-		nextQuestions: diagnosis.nextQuestions.slice(0, NEXT_QUESTIONS_IN_RESPONSE),
-		tests: diagnosis.tests.map(({ steps: _steps, ...test }) => test),
 		caseId
 	};
 }

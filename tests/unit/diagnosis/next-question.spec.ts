@@ -145,6 +145,15 @@ describe('next questions', () => {
 		expect(level?.cautions).toEqual(['Check the level only with the engine cold.']);
 	});
 
+	it('describes only the best few when asked, in the same order', async () => {
+		const diagnoser = createDiagnoser(makeCoolingRulebook());
+		const input = { observations: { coolant_level: 'low' } } as const;
+		const all = (await diagnoser.diagnose(input)).nextQuestions;
+		expect(all.length).toBeGreaterThan(3);
+		const best = (await diagnoser.diagnose(input, { questionLimit: 3 })).nextQuestions;
+		expect(best).toEqual(all.slice(0, 3));
+	});
+
 	it('gives gain 0 to a question whose answers cannot change any cause', async () => {
 		const diagnoser = createDiagnoser(makeCoolingRulebook());
 		const gainOf = async (input: DiagnoseInput, key: string) =>

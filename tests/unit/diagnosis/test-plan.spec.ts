@@ -117,7 +117,10 @@ describe('test plan', () => {
 			cautions: ['Never open the cap on a hot, pressurised system.'],
 			sets: 'pressure_test'
 		});
-		expect(pressure?.steps.length).toBeGreaterThan(0);
+		expect(pressure?.steps?.length).toBeGreaterThan(0);
+		const brief = await diagnoser.diagnose({ observations: {} }, { testSteps: false });
+		expect(brief.tests.map((test) => test.key)).toEqual(tests.map((test) => test.key));
+		expect(brief.tests.every((test) => test.steps === undefined)).toBe(true);
 	});
 });
 
