@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { startServer } from '../support/server';
 import { Client } from '../support/client';
-import { DEMO_API_KEY, newClient, openServerDb } from './helpers';
+import { createShop, DEMO_API_KEY, newClient, openServerDb } from './helpers';
 
 const auth = { authorization: `Bearer ${DEMO_API_KEY}` };
 const diagnose = (body: unknown, headers: Record<string, string> = auth) =>
@@ -157,6 +157,44 @@ describe('POST /api/v1/diagnose: saving cases', () => {
 		});
 		expect(row.rows[0].number).toBe(1);
 		db.close();
+	});
+});
+
+describe('POST /api/v1/diagnose: editions', () => {
+	it('scores with the shop’s newest published edition, by key and by session, never a draft', async () => {
+		const { client } = await createShop('Two Editions Garage');
+		const created = await client.action('/settings/api-keys?/create', { name: 'Intake' });
+		const key = String(created.data?.createdKey);
+		const db = openServerDb();
+		const [{ shop_id: shopId }] = (
+			await db.execute({
+				sql: 'SELECT shop_id FROM api_keys WHERE prefix = ?',
+				args: [key.slice(0, 10)]
+			})
+		).rows;
+		const copyEdition = (id: string, number: number, status: string) =>
+			db.execute({
+				sql: `INSERT INTO rulebook_editions (id, shop_id, number, status, content, published_at)
+					SELECT ?, shop_id, ?, ?, content, CASE WHEN ? = 'published' THEN unixepoch() END
+					FROM rulebook_editions WHERE shop_id = ? AND number = 1`,
+				args: [`${id}-${shopId}`, number, status, status, shopId]
+			});
+		await copyEdition('second', 2, 'published');
+		await copyEdition('draft', 3, 'draft');
+		db.close();
+
+		const byKey = await newClient().json(
+			'/api/v1/diagnose',
+			{ observations: {} },
+			{ authorization: `Bearer ${key}` }
+		);
+		expect(byKey.status).toBe(200);
+		expect(byKey.body.rulebook.edition).toBe(2);
+		expect(byKey.body.rulebook.publishedAt).toEqual(expect.any(String));
+		const bySession = await client.json('/api/v1/diagnose', { observations: {} });
+		expect(bySession.body.rulebook.edition).toBe(2);
+		// Another shop's editions do not count.
+		expect((await diagnose({ observations: {} })).body.rulebook.edition).toBe(1);
 	});
 });
 

@@ -26,7 +26,7 @@ export function parseDiagnoseRequest(body: unknown): DiagnoseRequest {
  * the case is stored with the edition it was scored with, so it can be replayed exactly.
  */
 export async function diagnoseForShop(caller: ApiCaller, request: DiagnoseRequest) {
-	const edition = await getPublishedEdition(caller.shopId);
+	const edition = await getPublishedEdition(caller.shopId, caller.publishedEdition);
 	const issues = validateObservations(edition.rulebook, request.observations, request.unknown);
 	if (issues.length) {
 		throw new AppError('invalid_request', 'Some observations are not understood.', { issues });

@@ -7,6 +7,7 @@ import { rulebookEditions } from './db/schema';
 import { auditInsert } from './audit';
 import { getConfig } from './config';
 import { generateId } from './auth/crypto';
+import type { PublishedEditionRow } from './auth/api-keys';
 import { AppError } from './errors';
 
 let baseRulebook: Rulebook | undefined;
@@ -54,7 +55,8 @@ export type PublishedEdition = {
 
 /**
  * Editions never change once published, so their compiled diagnoser is cached by id; which
- * edition is published is read from the database on every call (no state that matters in memory).
+ * edition is published is read from the database on every call (no state that matters in memory):
+ * here, or with the caller's API key (`authenticateApiKey` reads it in the same statement).
  */
 const diagnosers = new Map<string, { diagnoser: Diagnoser; rulebook: Rulebook }>();
 const MAX_CACHED_EDITIONS = 200;
@@ -76,8 +78,12 @@ const findPublishedEdition = db
 	.limit(1)
 	.prepare();
 
-export async function getPublishedEdition(shopId: string): Promise<PublishedEdition> {
-	const [row] = await findPublishedEdition.all({ shopId });
+export async function getPublishedEdition(
+	shopId: string,
+	alreadyRead?: PublishedEditionRow | null
+): Promise<PublishedEdition> {
+	const row =
+		alreadyRead === undefined ? (await findPublishedEdition.all({ shopId }))[0] : alreadyRead;
 	if (!row) throw new AppError('not_found', 'This shop has no published rulebook edition.');
 	let compiled = diagnosers.get(row.id);
 	if (!compiled) {

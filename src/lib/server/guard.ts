@@ -1,5 +1,5 @@
 import { error, redirect, type RequestEvent } from '@sveltejs/kit';
-import { authenticateApiKey } from './auth/api-keys';
+import { authenticateApiKey, type PublishedEditionRow } from './auth/api-keys';
 import { apiRateCounter } from './auth/rate-limit';
 import { can, type Permission } from './auth/roles';
 import type { SessionUser } from './auth/session';
@@ -33,6 +33,9 @@ export type ApiCaller = {
 	shopId: string;
 	userId: string | null;
 	apiKeyId: string | null;
+	/** The shop's published edition when it was read with the key (null: none); left out for a
+	 * session, whose edition is looked up when needed. */
+	publishedEdition?: PublishedEditionRow | null;
 };
 
 /** Who is calling: an API key of a shop, or a signed-in person; an AppError when neither may. */
@@ -48,7 +51,12 @@ async function identifyCaller(
 		if (!API_KEY_PERMISSIONS.includes(permission)) {
 			return new AppError('forbidden', 'API keys may not do this; sign in instead.');
 		}
-		return { shopId: key.shopId, userId: null, apiKeyId: key.id };
+		return {
+			shopId: key.shopId,
+			userId: null,
+			apiKeyId: key.id,
+			publishedEdition: key.publishedEdition
+		};
 	}
 	const user = event.locals.user;
 	if (!user) {

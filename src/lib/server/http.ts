@@ -1,5 +1,18 @@
-import { json, type RequestEvent } from '@sveltejs/kit';
+import type { RequestEvent } from '@sveltejs/kit';
 import { AppError, type AppErrorCode, type Issue, STATUS_OF } from './errors';
+
+/**
+ * A JSON response, like SvelteKit's `json()` but encoding the body once: `json()` encodes the
+ * text a second time only to count its bytes, which costs as much as the encoding itself on a
+ * diagnosis (about 20 KB).
+ */
+export function json(data: unknown, init: ResponseInit = {}): Response {
+	const body = Buffer.from(JSON.stringify(data), 'utf8');
+	const headers = new Headers(init.headers);
+	headers.set('content-length', String(body.byteLength));
+	if (!headers.has('content-type')) headers.set('content-type', 'application/json');
+	return new Response(body, { ...init, headers });
+}
 
 /** The contract's error shape: { error: { code, message, issues? } } (contract/api.md). */
 export function apiError(

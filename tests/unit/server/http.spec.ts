@@ -1,6 +1,6 @@
 import { describe, expect, it, vi } from 'vitest';
 import type { RequestEvent } from '@sveltejs/kit';
-import { apiError, apiHandler, readJsonBody, zodIssues } from '../../../src/lib/server/http';
+import { apiError, apiHandler, json, readJsonBody, zodIssues } from '../../../src/lib/server/http';
 import { AppError } from '../../../src/lib/server/errors';
 import { z } from 'zod';
 
@@ -10,6 +10,20 @@ const event = (requestId = 'req-123') =>
 		request: new Request('http://localhost/api/v1/x', { method: 'POST' }),
 		url: new URL('http://localhost/api/v1/x')
 	}) as unknown as RequestEvent;
+
+describe('json responses', () => {
+	it('counts the bytes of the encoded body, not the characters', async () => {
+		const data = { reading: '92 °C', note: 'customer’s “sweet smell”' };
+		const res = json(data, { status: 201, headers: { 'x-extra': '1' } });
+		expect(res.status).toBe(201);
+		expect(res.headers.get('content-type')).toBe('application/json');
+		expect(res.headers.get('x-extra')).toBe('1');
+		const bytes = new Uint8Array(await res.arrayBuffer());
+		expect(Number(res.headers.get('content-length'))).toBe(bytes.byteLength);
+		expect(bytes.byteLength).toBeGreaterThan(JSON.stringify(data).length);
+		expect(JSON.parse(new TextDecoder().decode(bytes))).toEqual(data);
+	});
+});
 
 describe('API error handling', () => {
 	it('answers an unexpected failure with 500, the request id and no stack trace', async () => {

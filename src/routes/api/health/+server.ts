@@ -1,6 +1,5 @@
-import { json } from '@sveltejs/kit';
 import { pingDatabase } from '$lib/server/health';
-import { apiHandler } from '$lib/server/http';
+import { apiHandler, json } from '$lib/server/http';
 import type { RequestHandler } from './$types';
 
 /** Liveness with the database reachable; no auth, nothing about the deployment revealed. */

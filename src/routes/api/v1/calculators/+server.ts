@@ -1,7 +1,6 @@
-import { json } from '@sveltejs/kit';
 import { listCalculators } from '$lib/server/calculators';
 import { authenticateApi } from '$lib/server/guard';
-import { apiHandler } from '$lib/server/http';
+import { apiHandler, json } from '$lib/server/http';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = apiHandler(async (event) => {

@@ -1,7 +1,6 @@
-import { json } from '@sveltejs/kit';
 import { parseDiagnoseRequest, diagnoseForShop } from '$lib/server/diagnose';
 import { authenticateApi } from '$lib/server/guard';
-import { apiHandler, readJsonBody } from '$lib/server/http';
+import { apiHandler, json, readJsonBody } from '$lib/server/http';
 import type { RequestHandler } from './$types';
 
 /** contract/api.md: request bodies over 64 KiB are refused with 413. */

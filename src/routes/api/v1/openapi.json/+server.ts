@@ -1,4 +1,4 @@
-import { json } from '@sveltejs/kit';
+import { json } from '$lib/server/http';
 import { getOpenApiDocument } from '$lib/server/openapi';
 import type { RequestHandler } from './$types';
 

@@ -1,7 +1,6 @@
-import { json } from '@sveltejs/kit';
 import { findCalculator, listCalculators, runCalculatorForShop } from '$lib/server/calculators';
 import { authenticateApi } from '$lib/server/guard';
-import { apiHandler, readJsonBody } from '$lib/server/http';
+import { apiHandler, json, readJsonBody } from '$lib/server/http';
 import type { RequestHandler } from './$types';
 
 /** A calculator's input is a handful of numbers; anything near this size is not a real request. */
