@@ -406,25 +406,60 @@ export function buildComplaintMatcher(rulebook: Rulebook): ComplaintMatcher {
 		return reading;
 	}
 
+	// Prefix filtering (as in set-similarity joins): a phrase can miss at most `allowance` of its
+	// content weight and still reach its coverage, so a segment that matches it has at least one
+	// of its rarest words worth more than that allowance. Phrases are therefore listed under those
+	// words only, and common words ("coolant", "engine") no longer touch hundreds of phrases.
+	const contentWords: { word: string; weight: number }[][] = entries.map(() => []);
+	for (const [word, users] of usersByWord) {
+		for (const { entryIndex, weight } of users) contentWords[entryIndex].push({ word, weight });
+	}
+	const neededWeights = entries.map(
+		(entry, entryIndex) => MIN_PHRASE_COVERAGE * entry.totalWeight - 1e-9 - freeWeights[entryIndex]
+	);
+	const prefixUsers = new Map<string, number[]>();
+	contentWords.forEach((words, entryIndex) => {
+		const total = words.reduce((sum, { weight }) => sum + weight, 0);
+		const allowance = total - neededWeights[entryIndex];
+		const rarestFirst = [...words].sort(
+			(a, b) =>
+				(usersByWord.get(a.word)?.length ?? 0) - (usersByWord.get(b.word)?.length ?? 0) ||
+				(a.word < b.word ? -1 : a.word > b.word ? 1 : 0)
+		);
+		let prefixWeight = 0;
+		for (const { word, weight } of rarestFirst) {
+			const users = prefixUsers.get(word);
+			if (users) users.push(entryIndex);
+			else prefixUsers.set(word, [entryIndex]);
+			prefixWeight += weight;
+			if (prefixWeight > allowance) break;
+		}
+	});
+
 	/** Phrases that share words with the segment and could still reach their coverage. */
-	const reachedWeights = new Float64Array(entries.length);
+	const seen = new Uint8Array(entries.length);
 	function listCandidates(segmentReadings: readonly WordReading[]): number[] {
 		const knownWords = new Set<string>();
 		for (const reading of segmentReadings)
 			for (const known of reading.keys()) knownWords.add(known);
 		const touched: number[] = [];
 		for (const known of knownWords) {
-			for (const { entryIndex, weight } of usersByWord.get(known) ?? []) {
-				if (reachedWeights[entryIndex] === 0) touched.push(entryIndex);
-				reachedWeights[entryIndex] += weight;
+			for (const entryIndex of prefixUsers.get(known) ?? []) {
+				if (seen[entryIndex] === 0) {
+					seen[entryIndex] = 1;
+					touched.push(entryIndex);
+				}
 			}
 		}
-		const candidates = touched.filter(
-			(entryIndex) =>
-				reachedWeights[entryIndex] + freeWeights[entryIndex] >=
-				MIN_PHRASE_COVERAGE * entries[entryIndex].totalWeight - 1e-9
-		);
-		for (const entryIndex of touched) reachedWeights[entryIndex] = 0;
+		const candidates: number[] = [];
+		for (const entryIndex of touched) {
+			seen[entryIndex] = 0;
+			let reached = 0;
+			for (const { word, weight } of contentWords[entryIndex]) {
+				if (knownWords.has(word)) reached += weight;
+			}
+			if (reached >= neededWeights[entryIndex]) candidates.push(entryIndex);
+		}
 		return candidates.sort((a, b) => a - b);
 	}
 

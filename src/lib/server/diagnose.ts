@@ -24,6 +24,7 @@ export function parseDiagnoseRequest(body: unknown): DiagnoseRequest {
 /**
  * Ranks causes with the shop's published edition. Stateless unless `saveAsCase`, in which case
  * the case is stored with the edition it was scored with, so it can be replayed exactly.
+ * Returns the response and the edition's serializer, which writes it as JSON.
  */
 export async function diagnoseForShop(caller: ApiCaller, request: DiagnoseRequest) {
 	const edition = await getPublishedEdition(caller.shopId, caller.publishedEdition);
@@ -58,9 +59,10 @@ export async function diagnoseForShop(caller: ApiCaller, request: DiagnoseReques
 			result: { causes: diagnosis.causes.map(({ key, probability }) => ({ key, probability })) }
 		});
 	}
-	return {
+	const response = {
 		rulebook: { edition: edition.number, publishedAt: edition.publishedAt?.toISOString() ?? null },
 		...diagnosis,
 		caseId
 	};
+	return { response, serializer: edition.serializer };
 }

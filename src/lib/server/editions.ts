@@ -1,5 +1,6 @@
 import { and, desc, eq, sql } from 'drizzle-orm';
 import { createDiagnoser, type Diagnoser } from '../diagnosis';
+import { createResponseSerializer, type ResponseSerializer } from '../diagnosis/response-json';
 import { loadRulebookFromDir } from '../diagnosis/load';
 import type { Rulebook } from '../diagnosis/schema';
 import { db } from './db';
@@ -51,6 +52,8 @@ export type PublishedEdition = {
 	publishedAt: Date | null;
 	diagnoser: Diagnoser;
 	rulebook: Rulebook;
+	/** Writes API responses scored with this edition. */
+	serializer: ResponseSerializer;
 };
 
 /**
@@ -58,7 +61,10 @@ export type PublishedEdition = {
  * edition is published is read from the database on every call (no state that matters in memory):
  * here, or with the caller's API key (`authenticateApiKey` reads it in the same statement).
  */
-const diagnosers = new Map<string, { diagnoser: Diagnoser; rulebook: Rulebook }>();
+const diagnosers = new Map<
+	string,
+	{ diagnoser: Diagnoser; rulebook: Rulebook; serializer: ResponseSerializer }
+>();
 const MAX_CACHED_EDITIONS = 200;
 
 const findPublishedEdition = db
@@ -95,7 +101,7 @@ export async function getPublishedEdition(
 		const diagnoser = createDiagnoser(content as Rulebook, {
 			evaluator: getConfig().DIAGNOSIS_EVALUATOR
 		});
-		compiled = { rulebook: diagnoser.rulebook, diagnoser };
+		compiled = { rulebook: diagnoser.rulebook, diagnoser, serializer: createResponseSerializer() };
 		if (diagnosers.size >= MAX_CACHED_EDITIONS) {
 			diagnosers.delete(diagnosers.keys().next().value!);
 		}

@@ -7,7 +7,16 @@ import { AppError, type AppErrorCode, type Issue, STATUS_OF } from './errors';
  * diagnosis (about 20 KB).
  */
 export function json(data: unknown, init: ResponseInit = {}): Response {
-	const body = Buffer.from(JSON.stringify(data), 'utf8');
+	return jsonBytes(Buffer.from(JSON.stringify(data), 'utf8'), init);
+}
+
+/** A response of JSON text that is plain ASCII (an edition's response serializer writes it so):
+ * its bytes are its characters, so it needs no UTF-8 encoder. */
+export function asciiJson(text: string, init: ResponseInit = {}): Response {
+	return jsonBytes(Buffer.from(text, 'latin1'), init);
+}
+
+function jsonBytes(body: Buffer<ArrayBuffer>, init: ResponseInit): Response {
 	const headers = new Headers(init.headers);
 	headers.set('content-length', String(body.byteLength));
 	if (!headers.has('content-type')) headers.set('content-type', 'application/json');

@@ -1,0 +1,115 @@
+/**
+ * JSON of a diagnosis response without serialising the edition's unchanging text (names, prompts,
+ * rationales, cautions, equipment) on every request.
+ *
+ * Each cause, question and test is written from a template made the first time it is met: the
+ * item's own JSON with its per-request fields (probability, gain, targets…) cut out. Fired rules'
+ * evidence is kept whole. The text is plain ASCII, every other character written as a \u escape
+ * (RFC 8259, section 7), so it is its own UTF-8 encoding and needs no encoder: for a 20 KB answer,
+ * encoding costs more than writing. A serializer belongs to one edition, whose text never
+ * changes; `tests/unit/diagnosis/response-json.spec.ts` checks it against `JSON.stringify` on
+ * random answers.
+ */
+
+type Item = Record<string, unknown>;
+
+/** Fields that change from one request to the next, per list of the response. */
+const VARYING_FIELDS = {
+	causes: ['probability', 'band', 'evidence'],
+	nextQuestions: ['expectedGain'],
+	tests: ['targets', 'priority', 'score']
+} as const;
+
+type ListName = keyof typeof VARYING_FIELDS;
+
+interface Template {
+	/** JSON text around the varying fields: one more piece than fields. */
+	pieces: string[];
+	fields: string[];
+}
+
+const NON_ASCII = /[\u0080-\uffff]/g;
+const escapeCodeUnit = (char: string) => `\\u${char.charCodeAt(0).toString(16).padStart(4, '0')}`;
+
+/** `JSON.stringify`, with every non-ASCII code unit escaped. */
+export function toAsciiJson(value: unknown): string {
+	const json = JSON.stringify(value);
+	NON_ASCII.lastIndex = 0;
+	return NON_ASCII.test(json) ? json.replace(NON_ASCII, escapeCodeUnit) : json;
+}
+
+const HOLE = '\u0000varies\u0000';
+const HOLE_JSON = JSON.stringify(HOLE);
+
+function makeTemplate(item: Item, varying: readonly string[]): Template {
+	const copy: Item = { ...item };
+	const fields = Object.keys(copy).filter((key) => varying.includes(key));
+	for (const field of fields) copy[field] = HOLE;
+	return { pieces: toAsciiJson(copy).split(HOLE_JSON), fields };
+}
+
+export interface ResponseSerializer {
+	/** The response as ASCII JSON text: `JSON.parse` gives back the same value, keys in order. */
+	stringify(response: Item): string;
+}
+
+export function createResponseSerializer(): ResponseSerializer {
+	const templates: Record<ListName, Map<string, Template>> = {
+		causes: new Map(),
+		nextQuestions: new Map(),
+		tests: new Map()
+	};
+	const evidenceJson = new Map<string, string>();
+
+	function writeValue(field: string, value: unknown): string {
+		if (field === 'evidence' && Array.isArray(value)) {
+			let out = '[';
+			for (let index = 0; index < value.length; index++) {
+				const evidence = value[index] as Item;
+				const rule = String(evidence.rule);
+				let json = evidenceJson.get(rule);
+				if (json === undefined) evidenceJson.set(rule, (json = toAsciiJson(evidence)));
+				out += index === 0 ? json : `,${json}`;
+			}
+			return `${out}]`;
+		}
+		return toAsciiJson(value);
+	}
+
+	function writeList(name: ListName, items: Item[]): string {
+		let out = '[';
+		for (let index = 0; index < items.length; index++) {
+			const item = items[index];
+			// Optional fields (a test's steps) change the template.
+			const id = name === 'tests' && item.steps ? `${item.key}+steps` : String(item.key);
+			let template = templates[name].get(id);
+			if (!template) {
+				template = makeTemplate(item, VARYING_FIELDS[name]);
+				templates[name].set(id, template);
+			}
+			let json = template.pieces[0];
+			for (let field = 0; field < template.fields.length; field++) {
+				const key = template.fields[field];
+				json += writeValue(key, item[key]) + template.pieces[field + 1];
+			}
+			out += index === 0 ? json : `,${json}`;
+		}
+		return `${out}]`;
+	}
+
+	return {
+		stringify(response) {
+			let out = '';
+			for (const key of Object.keys(response)) {
+				const value = response[key];
+				if (value === undefined) continue;
+				const json =
+					key in VARYING_FIELDS && Array.isArray(value)
+						? writeList(key as ListName, value as Item[])
+						: toAsciiJson(value);
+				out += `${out ? ',' : '{'}${toAsciiJson(key)}:${json}`;
+			}
+			return out ? `${out}}` : '{}';
+		}
+	};
+}
