@@ -6,6 +6,7 @@ describe('configuration', () => {
 		const config = parseConfig({});
 		expect(config.DATABASE_URL).toBe('file:data/causeway.db');
 		expect(config.API_RATE_LIMIT_PER_MINUTE).toBe(600);
+		expect(config.RATE_LIMIT_SYNC_MS).toBe(1000);
 		expect(config.CAUSEWAY_SEED_DEMO).toBe(false);
 	});
 
