@@ -49,6 +49,32 @@ describe('API keys', () => {
 		db.close();
 	});
 
+	it('stops working within about a second when revoked by another server', async () => {
+		const { client } = await createShop('Second Server Garage');
+		const created = await client.action('/settings/api-keys?/create', { name: 'Intake' });
+		const key = String(created.data?.createdKey);
+		const anon = newClient();
+		const call = () =>
+			anon.json('/api/v1/diagnose', { observations: {} }, { authorization: `Bearer ${key}` });
+		expect((await call()).status).toBe(200);
+		// Another app server on the same database revokes it: this server only sees the row.
+		const db = openServerDb();
+		await db.execute({
+			sql: 'UPDATE api_keys SET revoked_at = unixepoch() WHERE prefix = ?',
+			args: [key.slice(0, 10)]
+		});
+		db.close();
+		const revokedAt = Date.now();
+		let status = 200;
+		while (status === 200 && Date.now() - revokedAt < 5000) {
+			status = (await call()).status;
+			if (status === 200) await new Promise((resolve) => setTimeout(resolve, 100));
+		}
+		expect(status).toBe(401);
+		// One second of caching, plus the time of a request.
+		expect(Date.now() - revokedAt).toBeLessThan(2000);
+	});
+
 	it('registers DEMO_API_KEY as the demo shop’s intake key when it is set', async () => {
 		const res = await newClient().json(
 			'/api/v1/diagnose',
