@@ -352,6 +352,10 @@ export function buildComplaintMatcher(rulebook: Rulebook): ComplaintMatcher {
 			usersByWord.set(word, users);
 		});
 	});
+	// A word read by its stem stands for every phrase word of that stem, fully.
+	const readingsByStem = new Map<string, WordReading>(
+		[...wordsByStem].map(([stem, words]) => [stem, new Map(words.map((known) => [known, 1]))])
+	);
 	const fuzzyVocabulary = [...usersByWord.keys()].filter(
 		(word) => word.length >= MIN_FUZZY_WORD_LENGTH
 	);
@@ -389,8 +393,8 @@ export function buildComplaintMatcher(rulebook: Rulebook): ComplaintMatcher {
 	function readWord(word: string): WordReading {
 		if (NEGATIONS.has(word) || CONJUNCTIONS.has(word) || LITTLE_WORDS.has(word)) return NO_READING;
 		const stem = stemWord(word);
-		const sameStem = wordsByStem.get(stem);
-		if (sameStem) return new Map(sameStem.map((known) => [known, 1]));
+		const sameStem = readingsByStem.get(stem);
+		if (sameStem) return sameStem;
 		if (knownStems.has(stem) || word.length < MIN_FUZZY_WORD_LENGTH) return NO_READING;
 		const cached = cachedReadings.get(word);
 		if (cached) return cached;

@@ -260,6 +260,9 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 	};
 }
 
+// A parsed rulebook is not changed afterwards, so its observations can be indexed once.
+const observationIndexes = new WeakMap<Rulebook, Map<string, Rulebook['observations'][number]>>();
+
 /**
  * Checks a request's answers against the rulebook: unknown keys, wrong kinds, enum values not
  * allowed, numbers out of range or not finite, unknown keys in `unknown`.
@@ -269,7 +272,11 @@ export function validateObservations(
 	observations: Record<string, unknown>,
 	unknown: readonly unknown[] = []
 ): RulebookIssue[] {
-	const byKey = new Map(rulebook.observations.map((observation) => [observation.key, observation]));
+	let byKey = observationIndexes.get(rulebook);
+	if (!byKey) {
+		byKey = new Map(rulebook.observations.map((observation) => [observation.key, observation]));
+		observationIndexes.set(rulebook, byKey);
+	}
 	const issues: RulebookIssue[] = [];
 	for (const [key, value] of Object.entries(observations)) {
 		const path = formatIssuePath(['observations', key]);

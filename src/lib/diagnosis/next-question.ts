@@ -1,5 +1,4 @@
 import type { CompiledRule, CompiledRulebook, FactVector, FiredMask } from './evaluate';
-import { logistic } from './rank';
 import type {
 	Bin,
 	Observation,
@@ -38,6 +37,17 @@ export interface NextQuestion {
 export function binaryEntropyBits(probability: number): number {
 	if (probability <= 0 || probability >= 1) return 0;
 	return -(probability * Math.log2(probability) + (1 - probability) * Math.log2(1 - probability));
+}
+
+/**
+ * h(σ(x)) in bits, straight from log-odds x: with e = exp(−|x|), h = ln(1 + e) + |x|·e / (1 + e)
+ * nats (h is symmetric in x). One exp and one log instead of the exp of the logistic and the two
+ * logs of the entropy; the look-ahead calls it for every cause each answer moves.
+ */
+export function entropyBitsOfLogOdds(logOdds: number): number {
+	const x = Math.abs(logOdds);
+	const e = Math.exp(-x);
+	return (Math.log1p(e) + (x * e) / (1 + e)) / Math.LN2;
 }
 
 function listDefaultOptions(observation: Observation): AnswerOption[] {
@@ -169,7 +179,7 @@ export function planNextQuestions(
 	const causeCount = compiled.causes.length;
 	const entropy = new Float64Array(causeCount);
 	for (let causeIndex = 0; causeIndex < causeCount; causeIndex++) {
-		entropy[causeIndex] = binaryEntropyBits(logistic(logOdds[causeIndex]));
+		entropy[causeIndex] = entropyBitsOfLogOdds(logOdds[causeIndex]);
 	}
 	const delta = new Float64Array(causeCount);
 	const isTouched = new Uint8Array(causeCount);
@@ -217,7 +227,7 @@ export function planNextQuestions(
 			let reduction = 0;
 			for (const causeIndex of touched) {
 				if (delta[causeIndex] !== 0) {
-					const after = binaryEntropyBits(logistic(logOdds[causeIndex] + delta[causeIndex]));
+					const after = entropyBitsOfLogOdds(logOdds[causeIndex] + delta[causeIndex]);
 					reduction += entropy[causeIndex] - after;
 				}
 				delta[causeIndex] = 0;

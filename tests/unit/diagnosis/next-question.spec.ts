@@ -6,7 +6,12 @@ import {
 	type FrequencyOverrides,
 	type ObservationValue
 } from '../../../src/lib/diagnosis';
-import { binaryEntropyBits, listAnswerOptions } from '../../../src/lib/diagnosis/next-question';
+import {
+	binaryEntropyBits,
+	entropyBitsOfLogOdds,
+	listAnswerOptions
+} from '../../../src/lib/diagnosis/next-question';
+import { logistic } from '../../../src/lib/diagnosis/rank';
 import {
 	createRng,
 	makeBooleanObservation,
@@ -51,6 +56,17 @@ describe('binaryEntropyBits', () => {
 		expect(binaryEntropyBits(1)).toBe(0);
 		// h(0.1) = −0.1·log2 0.1 − 0.9·log2 0.9 = 0.468996 (computed here).
 		expect(binaryEntropyBits(0.1)).toBeCloseTo(0.468996, 6);
+	});
+});
+
+describe('entropyBitsOfLogOdds', () => {
+	it('equals h(σ(x)) from log-odds, far into both tails', () => {
+		for (let x = -40; x <= 40; x += 0.37) {
+			expect(entropyBitsOfLogOdds(x)).toBeCloseTo(binaryEntropyBits(logistic(x)), 12);
+		}
+		expect(entropyBitsOfLogOdds(0)).toBe(1);
+		expect(entropyBitsOfLogOdds(800)).toBe(0);
+		expect(entropyBitsOfLogOdds(-800)).toBe(0);
 	});
 });
 
