@@ -73,6 +73,8 @@ export function createResponseSerializer(): ResponseSerializer {
 			}
 			return `${out}]`;
 		}
+		// Numbers are most of what varies; their JSON is their ASCII text.
+		if (typeof value === 'number') return Number.isFinite(value) ? String(value) : 'null';
 		return toAsciiJson(value);
 	}
 
