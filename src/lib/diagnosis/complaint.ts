@@ -153,13 +153,17 @@ interface Token {
 	end: number;
 }
 
+const QUOTE_MARKS = /[\u2018\u2019`]/;
+const QUOTE_MARKS_ALL = /[\u2018\u2019`]/g;
+
 function tokenize(text: string): Token[] {
 	const tokens: Token[] = [];
 	// Matched on the original text so that offsets point into what the customer wrote.
 	for (const match of text.matchAll(/[a-z0-9]+(?:['\u2018\u2019`][a-z]+)?/gi)) {
 		const start = match.index;
 		const end = start + match[0].length;
-		const word = match[0].toLowerCase().replace(/[\u2018\u2019`]/g, "'");
+		const lower = match[0].toLowerCase();
+		const word = QUOTE_MARKS.test(lower) ? lower.replace(QUOTE_MARKS_ALL, "'") : lower;
 		const apostrophe = word.indexOf("'");
 		const negatedVerb = word.endsWith("n't")
 			? (VERBS_BEFORE_NT.get(word.slice(0, -3)) ?? word.slice(0, -3))
@@ -665,6 +669,8 @@ function measureTokenFit(
  * The best-scoring window of the segment for this phrase. Windows start and end on tokens that
  * fit some phrase word: a window edge on a word the phrase lacks only lowers the score.
  */
+const NO_INDICES: readonly number[] = [];
+
 function findBestWindow(
 	entry: PhraseEntry,
 	segment: Segment,
@@ -674,25 +680,38 @@ function findBestWindow(
 	// The candidate list counted the phrase's little words as there; a window can only cover
 	// those the segment has.
 	let reachableWeight = 0;
-	entry.words.forEach((word, wordIndex) => {
-		if (
-			segment.tokenIndicesByStem.has(entry.stems[wordIndex]) ||
-			(!LITTLE_WORDS.has(word) && typoTokenIndices.some((index) => readings[index].has(word)))
-		) {
-			reachableWeight += entry.weights[wordIndex];
+	for (let wordIndex = 0; wordIndex < entry.words.length; wordIndex++) {
+		const word = entry.words[wordIndex];
+		let reachable = segment.tokenIndicesByStem.has(entry.stems[wordIndex]);
+		if (!reachable && !LITTLE_WORDS.has(word)) {
+			for (const index of typoTokenIndices) {
+				if (readings[index].has(word)) {
+					reachable = true;
+					break;
+				}
+			}
 		}
-	});
+		if (reachable) reachableWeight += entry.weights[wordIndex];
+	}
 	if (reachableWeight < MIN_PHRASE_COVERAGE * entry.totalWeight - 1e-9) return null;
-	const anchorSet = new Set<number>();
+	// Tokens that fit some phrase word, in order (negation words never anchor a window).
+	const isAnchor = new Uint8Array(segment.tokens.length);
 	for (const stem of entry.stems) {
-		for (const index of segment.tokenIndicesByStem.get(stem) ?? []) anchorSet.add(index);
+		for (const index of segment.tokenIndicesByStem.get(stem) ?? NO_INDICES) isAnchor[index] = 1;
 	}
 	for (const index of typoTokenIndices) {
-		if (entry.words.some((word) => readings[index].has(word))) anchorSet.add(index);
+		if (isAnchor[index] === 1) continue;
+		for (const word of entry.words) {
+			if (readings[index].has(word)) {
+				isAnchor[index] = 1;
+				break;
+			}
+		}
 	}
-	const anchors = [...anchorSet]
-		.filter((index) => !NEGATIONS.has(segment.tokens[index].word))
-		.sort((a, b) => a - b);
+	const anchors: number[] = [];
+	for (let index = 0; index < isAnchor.length; index++) {
+		if (isAnchor[index] === 1 && !NEGATIONS.has(segment.tokens[index].word)) anchors.push(index);
+	}
 	const maxLength = entry.words.length + EXTRA_WINDOW_WORDS;
 	const matchedAt: number[] = new Array(entry.words.length);
 	let best: WindowMatch | null = null;
