@@ -1,4 +1,5 @@
 import { Engine, OperatorDecorator } from 'json-rules-engine';
+import type { Evidence } from './rank';
 import {
 	listConditionFacts,
 	type Cause,
@@ -31,6 +32,8 @@ export interface CompiledRule {
 	requiredFacts: number[];
 	predicate: Predicate;
 	rule: Rule;
+	/** What a diagnosis shows when the rule fires; made once, frozen, shared by every result. */
+	evidence: Readonly<Evidence>;
 }
 
 export interface CompiledRulebook {
@@ -152,7 +155,13 @@ export function compileRulebook(rulebook: Rulebook): CompiledRulebook {
 			facts,
 			requiredFacts: [...findRequiredFacts(rule.conditions, indexOf)],
 			predicate: compileCondition(rule.conditions, indexOf),
-			rule
+			rule,
+			evidence: Object.freeze({
+				rule: rule.key,
+				lr: rule.lr,
+				because: rule.rationale,
+				source: rule.source
+			})
 		};
 	});
 	return {

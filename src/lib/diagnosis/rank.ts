@@ -47,13 +47,7 @@ export function rankCauses(
 ): RankedCause[] {
 	const evidenceByCause: Evidence[][] = compiled.causes.map(() => []);
 	for (const rule of compiled.rules) {
-		if (fired[rule.index] !== 1) continue;
-		evidenceByCause[rule.causeIndex].push({
-			rule: rule.key,
-			lr: rule.lr,
-			because: rule.rule.rationale,
-			source: rule.rule.source
-		});
+		if (fired[rule.index] === 1) evidenceByCause[rule.causeIndex].push(rule.evidence);
 	}
 	const bands = compiled.rulebook.meta.bands;
 	const ranked = compiled.causes.map((cause, index): RankedCause => {
