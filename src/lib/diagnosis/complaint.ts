@@ -444,30 +444,47 @@ export function buildComplaintMatcher(rulebook: Rulebook): ComplaintMatcher {
 		}
 	});
 
+	// The same lists by word number, so the coverage check below compares integers.
+	const wordNumbers = new Map([...usersByWord.keys()].map((word, number) => [word, number]));
+	const contentWordNumbers = contentWords.map((words) =>
+		Int32Array.from(words, ({ word }) => wordNumbers.get(word) as number)
+	);
+	const contentWordWeights = contentWords.map((words) =>
+		Float64Array.from(words, ({ weight }) => weight)
+	);
+	const isKnownWord = new Uint8Array(wordNumbers.size);
+
 	/** Phrases that share words with the segment and could still reach their coverage. */
 	const seen = new Uint8Array(entries.length);
 	function listCandidates(segmentReadings: readonly WordReading[]): number[] {
-		const knownWords = new Set<string>();
-		for (const reading of segmentReadings)
-			for (const known of reading.keys()) knownWords.add(known);
+		const knownNumbers: number[] = [];
 		const touched: number[] = [];
-		for (const known of knownWords) {
-			for (const entryIndex of prefixUsers.get(known) ?? []) {
-				if (seen[entryIndex] === 0) {
-					seen[entryIndex] = 1;
-					touched.push(entryIndex);
+		for (const reading of segmentReadings) {
+			for (const known of reading.keys()) {
+				const number = wordNumbers.get(known);
+				if (number === undefined || isKnownWord[number] === 1) continue;
+				isKnownWord[number] = 1;
+				knownNumbers.push(number);
+				for (const entryIndex of prefixUsers.get(known) ?? NO_ENTRIES) {
+					if (seen[entryIndex] === 0) {
+						seen[entryIndex] = 1;
+						touched.push(entryIndex);
+					}
 				}
 			}
 		}
 		const candidates: number[] = [];
 		for (const entryIndex of touched) {
 			seen[entryIndex] = 0;
+			const numbers = contentWordNumbers[entryIndex];
+			const weights = contentWordWeights[entryIndex];
 			let reached = 0;
-			for (const { word, weight } of contentWords[entryIndex]) {
-				if (knownWords.has(word)) reached += weight;
+			for (let index = 0; index < numbers.length; index++) {
+				if (isKnownWord[numbers[index]] === 1) reached += weights[index];
 			}
 			if (reached >= neededWeights[entryIndex]) candidates.push(entryIndex);
 		}
+		for (const number of knownNumbers) isKnownWord[number] = 0;
 		return candidates.sort((a, b) => a - b);
 	}
 
@@ -670,6 +687,7 @@ function measureTokenFit(
  * fit some phrase word: a window edge on a word the phrase lacks only lowers the score.
  */
 const NO_INDICES: readonly number[] = [];
+const NO_ENTRIES: readonly number[] = [];
 
 function findBestWindow(
 	entry: PhraseEntry,

@@ -22,6 +22,10 @@ const VARYING_FIELDS = {
 
 type ListName = keyof typeof VARYING_FIELDS;
 
+/** Lists of the edition's own strings (cause keys, cautions): each string's JSON is kept. */
+const EDITION_STRING_LISTS = new Set(['targets', 'cautions']);
+const MAX_KEPT_STRINGS = 10_000;
+
 interface Template {
 	/** JSON text around the varying fields: one more piece than fields. */
 	pieces: string[];
@@ -60,6 +64,24 @@ export function createResponseSerializer(): ResponseSerializer {
 		tests: new Map()
 	};
 	const evidenceJson = new Map<string, string>();
+	const stringJson = new Map<string, string>();
+
+	function writeStrings(values: unknown[]): string {
+		let out = '[';
+		for (let index = 0; index < values.length; index++) {
+			const value = values[index];
+			let json = typeof value === 'string' ? stringJson.get(value) : undefined;
+			if (json === undefined) {
+				json = toAsciiJson(value);
+				if (typeof value === 'string') {
+					if (stringJson.size >= MAX_KEPT_STRINGS) stringJson.clear();
+					stringJson.set(value, json);
+				}
+			}
+			out += index === 0 ? json : `,${json}`;
+		}
+		return `${out}]`;
+	}
 
 	function writeValue(field: string, value: unknown): string {
 		if (field === 'evidence' && Array.isArray(value)) {
@@ -75,6 +97,7 @@ export function createResponseSerializer(): ResponseSerializer {
 		}
 		// Numbers are most of what varies; their JSON is their ASCII text.
 		if (typeof value === 'number') return Number.isFinite(value) ? String(value) : 'null';
+		if (EDITION_STRING_LISTS.has(field) && Array.isArray(value)) return writeStrings(value);
 		return toAsciiJson(value);
 	}
 
@@ -108,7 +131,7 @@ export function createResponseSerializer(): ResponseSerializer {
 				const json =
 					key in VARYING_FIELDS && Array.isArray(value)
 						? writeList(key as ListName, value as Item[])
-						: toAsciiJson(value);
+						: writeValue(key, value);
 				out += `${out ? ',' : '{'}${toAsciiJson(key)}:${json}`;
 			}
 			return out ? `${out}}` : '{}';
