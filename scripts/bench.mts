@@ -10,6 +10,9 @@ import { spawnSync } from 'node:child_process';
 import autocannon from 'autocannon';
 import { createDiagnoser, makeSyntheticRulebook, type Rulebook } from '../src/lib/diagnosis';
 import { loadRulebookFromDir } from '../src/lib/diagnosis/load';
+import { compileRulebook, evaluateCompiled, toFactVector } from '../src/lib/diagnosis/evaluate';
+import { planNextQuestions } from '../src/lib/diagnosis/next-question';
+import { sumLogOdds } from '../src/lib/diagnosis/rank';
 import { startServer } from '../tests/support/server';
 
 type Value = boolean | string | number;
@@ -80,15 +83,34 @@ async function benchEngine() {
 		await measure('diagnose, engine evaluation (rank + next questions + tests)', (observations) =>
 			diagnoser.diagnose({ observations }, { evaluator: 'engine' })
 		);
+		const compiled = compileRulebook(diagnoser.rulebook);
+		await measure('next questions alone (look-ahead over every unanswered one)', (observations) => {
+			const facts = toFactVector(compiled, Object.entries(observations));
+			const fired = evaluateCompiled(compiled, facts);
+			return planNextQuestions(
+				compiled,
+				{ facts, fired, logOdds: sumLogOdds(compiled, fired) },
+				new Set()
+			);
+		});
 		await measure('diagnose, compiled evaluation', (observations) =>
 			diagnoser.diagnose({ observations }, { evaluator: 'compiled' })
 		);
+		await measure('diagnose as the API answers (best 10 questions, no steps)', (observations) =>
+			diagnoser.diagnose(
+				{ observations },
+				{ evaluator: 'compiled', questionLimit: 10, testSteps: false }
+			)
+		);
 		if (name === 'base') {
-			await measure('diagnose with a complaint to match', (observations) =>
-				diagnoser.diagnose({
-					observations,
-					complaint: COMPLAINTS[Object.keys(observations).length % COMPLAINTS.length]
-				})
+			await measure('the same with a complaint to match', (observations) =>
+				diagnoser.diagnose(
+					{
+						observations,
+						complaint: COMPLAINTS[Object.keys(observations).length % COMPLAINTS.length]
+					},
+					{ evaluator: 'compiled', questionLimit: 10, testSteps: false }
+				)
 			);
 		}
 	}
