@@ -182,19 +182,16 @@ export function planNextQuestions(
 		entropy[causeIndex] = entropyBitsOfLogOdds(logOdds[causeIndex]);
 	}
 	const delta = new Float64Array(causeCount);
+	// Causes an answer moves, kept as a count over fixed arrays: resetting array lengths in the
+	// innermost loop cost more than the arithmetic.
 	const isTouched = new Uint8Array(causeCount);
-	const touched: number[] = [];
+	const touched = new Int32Array(causeCount);
+	let touchedCount = 0;
 	const live: CompiledRule[] = [];
+	let liveCount: number;
 	const asked: number[] = [];
 	const gains = new Float64Array(observations.length);
 	const shownGains = new Float64Array(observations.length);
-	const shift = (causeIndex: number, lnLr: number) => {
-		if (isTouched[causeIndex] === 0) {
-			isTouched[causeIndex] = 1;
-			touched.push(causeIndex);
-		}
-		delta[causeIndex] += lnLr;
-	};
 
 	for (let observationIndex = 0; observationIndex < observations.length; observationIndex++) {
 		const observation = observations[observationIndex];
@@ -203,7 +200,7 @@ export function planNextQuestions(
 		// Shared rules that can start firing on this answer: not firing yet (one more answer
 		// never stops a rule firing, since no leaf holds on an unanswered observation), and not
 		// waiting for some other unanswered observation.
-		live.length = 0;
+		liveCount = 0;
 		for (const rule of sharedRules) {
 			if (fired[rule.index] === 1) continue;
 			let waits = false;
@@ -213,19 +210,36 @@ export function planNextQuestions(
 					break;
 				}
 			}
-			if (!waits) live.push(rule);
+			if (!waits) live[liveCount++] = rule;
 		}
 		let expectedGain = 0;
 		const options = listAnswerOptions(observation, overrides);
 		for (let optionIndex = 0; optionIndex < options.length; optionIndex++) {
-			for (const { causeIndex, lnLr } of singleFactShifts[optionIndex]) shift(causeIndex, lnLr);
-			if (live.length > 0) {
+			const shifts = singleFactShifts[optionIndex];
+			for (let shiftIndex = 0; shiftIndex < shifts.length; shiftIndex++) {
+				const { causeIndex, lnLr } = shifts[shiftIndex];
+				if (isTouched[causeIndex] === 0) {
+					isTouched[causeIndex] = 1;
+					touched[touchedCount++] = causeIndex;
+				}
+				delta[causeIndex] += lnLr;
+			}
+			if (liveCount > 0) {
 				facts[observationIndex] = options[optionIndex].value;
-				for (const rule of live) if (rule.predicate(facts)) shift(rule.causeIndex, rule.lnLr);
+				for (let ruleIndex = 0; ruleIndex < liveCount; ruleIndex++) {
+					const rule = live[ruleIndex];
+					if (!rule.predicate(facts)) continue;
+					if (isTouched[rule.causeIndex] === 0) {
+						isTouched[rule.causeIndex] = 1;
+						touched[touchedCount++] = rule.causeIndex;
+					}
+					delta[rule.causeIndex] += rule.lnLr;
+				}
 				facts[observationIndex] = undefined;
 			}
 			let reduction = 0;
-			for (const causeIndex of touched) {
+			for (let touchedIndex = 0; touchedIndex < touchedCount; touchedIndex++) {
+				const causeIndex = touched[touchedIndex];
 				if (delta[causeIndex] !== 0) {
 					const after = entropyBitsOfLogOdds(logOdds[causeIndex] + delta[causeIndex]);
 					reduction += entropy[causeIndex] - after;
@@ -233,7 +247,7 @@ export function planNextQuestions(
 				delta[causeIndex] = 0;
 				isTouched[causeIndex] = 0;
 			}
-			touched.length = 0;
+			touchedCount = 0;
 			expectedGain += options[optionIndex].probability * reduction;
 		}
 		gains[observationIndex] = expectedGain;
