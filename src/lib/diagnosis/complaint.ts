@@ -153,6 +153,7 @@ interface Token {
 	end: number;
 }
 
+const NO_NUMBERS: readonly number[] = [];
 const QUOTE_MARKS = /[\u2018\u2019`]/;
 const QUOTE_MARKS_ALL = /[\u2018\u2019`]/g;
 
@@ -465,7 +466,7 @@ export function buildComplaintMatcher(rulebook: Rulebook): ComplaintMatcher {
 				if (number === undefined || isKnownWord[number] === 1) continue;
 				isKnownWord[number] = 1;
 				knownNumbers.push(number);
-				for (const entryIndex of prefixUsers.get(known) ?? NO_ENTRIES) {
+				for (const entryIndex of prefixUsers.get(known) ?? NO_NUMBERS) {
 					if (seen[entryIndex] === 0) {
 						seen[entryIndex] = 1;
 						touched.push(entryIndex);
@@ -686,9 +687,6 @@ function measureTokenFit(
  * The best-scoring window of the segment for this phrase. Windows start and end on tokens that
  * fit some phrase word: a window edge on a word the phrase lacks only lowers the score.
  */
-const NO_INDICES: readonly number[] = [];
-const NO_ENTRIES: readonly number[] = [];
-
 function findBestWindow(
 	entry: PhraseEntry,
 	segment: Segment,
@@ -715,7 +713,7 @@ function findBestWindow(
 	// Tokens that fit some phrase word, in order (negation words never anchor a window).
 	const isAnchor = new Uint8Array(segment.tokens.length);
 	for (const stem of entry.stems) {
-		for (const index of segment.tokenIndicesByStem.get(stem) ?? NO_INDICES) isAnchor[index] = 1;
+		for (const index of segment.tokenIndicesByStem.get(stem) ?? NO_NUMBERS) isAnchor[index] = 1;
 	}
 	for (const index of typoTokenIndices) {
 		if (isAnchor[index] === 1) continue;

@@ -20,6 +20,7 @@ import {
 	formatIssuePath,
 	parseRulebook,
 	type Band,
+	type Observation,
 	type ObservationValue,
 	type Rulebook,
 	type RulebookIssue
@@ -100,6 +101,11 @@ export interface Diagnoser {
 	/** Keys of the rules the compiled predicates fire on these answers, in rulebook order. */
 	evaluateCompiled(facts: Record<string, ObservationValue | null | undefined>): string[];
 	matchComplaint(complaint: string, skip?: ReadonlySet<string>): ComplaintMatch[];
+	/** `validateObservations` against this edition, with its observations indexed once. */
+	validateObservations(
+		observations: Record<string, unknown>,
+		unknown?: readonly unknown[]
+	): RulebookIssue[];
 }
 
 /** How many of the first planned tests lend their cautions to the response's cautions. */
@@ -206,7 +212,6 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 		rulebook: book,
 		analyse,
 		async diagnose(input, runOptions) {
-			// `analyse` lists every question; a response needs only the best few described.
 			const analysis = await score(input, runOptions);
 			const withSteps = runOptions?.testSteps ?? true;
 			const causes: DiagnosedCause[] = analysis.causes.map((cause) => ({
@@ -256,12 +261,12 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 		},
 		matchComplaint(complaint, skip) {
 			return matcher.matchComplaint(complaint, skip);
+		},
+		validateObservations(observations, unknown) {
+			return checkObservations(compiled.observationsByKey, observations, unknown);
 		}
 	};
 }
-
-// A parsed rulebook is not changed afterwards, so its observations can be indexed once.
-const observationIndexes = new WeakMap<Rulebook, Map<string, Rulebook['observations'][number]>>();
 
 /**
  * Checks a request's answers against the rulebook: unknown keys, wrong kinds, enum values not
@@ -272,11 +277,15 @@ export function validateObservations(
 	observations: Record<string, unknown>,
 	unknown: readonly unknown[] = []
 ): RulebookIssue[] {
-	let byKey = observationIndexes.get(rulebook);
-	if (!byKey) {
-		byKey = new Map(rulebook.observations.map((observation) => [observation.key, observation]));
-		observationIndexes.set(rulebook, byKey);
-	}
+	const byKey = new Map(rulebook.observations.map((observation) => [observation.key, observation]));
+	return checkObservations(byKey, observations, unknown);
+}
+
+function checkObservations(
+	byKey: ReadonlyMap<string, Observation>,
+	observations: Record<string, unknown>,
+	unknown: readonly unknown[] = []
+): RulebookIssue[] {
 	const issues: RulebookIssue[] = [];
 	for (const [key, value] of Object.entries(observations)) {
 		const path = formatIssuePath(['observations', key]);

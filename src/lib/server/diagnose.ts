@@ -1,5 +1,4 @@
 import { diagnoseRequestSchema, type DiagnoseRequest } from '../diagnosis/api-schema';
-import { validateObservations } from '../diagnosis';
 import { db } from './db';
 import { cases } from './db/schema';
 import { generateId } from './auth/crypto';
@@ -28,7 +27,7 @@ export function parseDiagnoseRequest(body: unknown): DiagnoseRequest {
  */
 export async function diagnoseForShop(caller: ApiCaller, request: DiagnoseRequest) {
 	const edition = await getPublishedEdition(caller.shopId, caller.publishedEdition);
-	const issues = validateObservations(edition.rulebook, request.observations, request.unknown);
+	const issues = edition.diagnoser.validateObservations(request.observations, request.unknown);
 	if (issues.length) {
 		throw new AppError('invalid_request', 'Some observations are not understood.', { issues });
 	}

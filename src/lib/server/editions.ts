@@ -1,4 +1,4 @@
-import { and, desc, eq, sql } from 'drizzle-orm';
+import { and, desc, eq, sql, type SQLWrapper } from 'drizzle-orm';
 import { createDiagnoser, type Diagnoser } from '../diagnosis';
 import { createResponseSerializer, type ResponseSerializer } from '../diagnosis/response-json';
 import { loadRulebookFromDir } from '../diagnosis/load';
@@ -8,7 +8,6 @@ import { rulebookEditions } from './db/schema';
 import { auditInsert } from './audit';
 import { getConfig } from './config';
 import { generateId } from './auth/crypto';
-import type { PublishedEditionRow } from './auth/api-keys';
 import { AppError } from './errors';
 
 let baseRulebook: Rulebook | undefined;
@@ -46,25 +45,28 @@ export async function seedBaseEdition(shopId: string, createdBy: string | null) 
 	]);
 }
 
-export type PublishedEdition = {
-	id: string;
-	number: number;
-	publishedAt: Date | null;
+/** Which edition a shop scores with: the published one with the highest number. */
+export type PublishedEditionRow = { id: string; number: number; publishedAt: Date | null };
+
+type CompiledEdition = {
 	diagnoser: Diagnoser;
 	rulebook: Rulebook;
 	/** Writes API responses scored with this edition. */
 	serializer: ResponseSerializer;
 };
 
+export type PublishedEdition = PublishedEditionRow & CompiledEdition;
+
+/** The published editions of a shop (a column or a placeholder); take the highest number. */
+export const publishedEditionsOf = (shopId: SQLWrapper) =>
+	and(eq(rulebookEditions.shopId, shopId), eq(rulebookEditions.status, 'published'));
+
 /**
  * Editions never change once published, so their compiled diagnoser is cached by id; which
  * edition is published is read from the database on every call (no state that matters in memory):
  * here, or with the caller's API key (`authenticateApiKey` reads it in the same statement).
  */
-const diagnosers = new Map<
-	string,
-	{ diagnoser: Diagnoser; rulebook: Rulebook; serializer: ResponseSerializer }
->();
+const diagnosers = new Map<string, CompiledEdition>();
 const MAX_CACHED_EDITIONS = 200;
 
 const findPublishedEdition = db
@@ -74,12 +76,7 @@ const findPublishedEdition = db
 		publishedAt: rulebookEditions.publishedAt
 	})
 	.from(rulebookEditions)
-	.where(
-		and(
-			eq(rulebookEditions.shopId, sql.placeholder('shopId')),
-			eq(rulebookEditions.status, 'published')
-		)
-	)
+	.where(publishedEditionsOf(sql.placeholder('shopId')))
 	.orderBy(desc(rulebookEditions.number))
 	.limit(1)
 	.prepare();

@@ -1,5 +1,6 @@
 import { error, redirect, type RequestEvent } from '@sveltejs/kit';
-import { authenticateApiKey, type PublishedEditionRow } from './auth/api-keys';
+import { authenticateApiKey } from './auth/api-keys';
+import type { PublishedEditionRow } from './editions';
 import { apiRateCounter } from './auth/rate-limit';
 import { can, type Permission } from './auth/roles';
 import type { SessionUser } from './auth/session';

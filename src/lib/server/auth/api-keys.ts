@@ -1,6 +1,7 @@
 import { and, desc, eq, isNull, sql } from 'drizzle-orm';
 import { db } from '../db';
 import { apiKeys, rulebookEditions } from '../db/schema';
+import { publishedEditionsOf, type PublishedEditionRow } from '../editions';
 import { auditInsert } from '../audit';
 import { AppError } from '../errors';
 import { generateId, hashToken, randomToken } from './crypto';
@@ -86,8 +87,7 @@ const LAST_USED_RESOLUTION_MS = 60_000;
 
 /**
  * The key, its shop and the shop's published edition in one read: every intake call needs all
- * three, and under load each statement costs a fifth of a millisecond. The edition part matches
- * `findPublishedEdition` in editions.ts.
+ * three, and under load each statement costs a fifth of a millisecond.
  */
 const findActiveKey = db
 	.select({
@@ -99,16 +99,11 @@ const findActiveKey = db
 		editionPublishedAt: rulebookEditions.publishedAt
 	})
 	.from(apiKeys)
-	.leftJoin(
-		rulebookEditions,
-		and(eq(rulebookEditions.shopId, apiKeys.shopId), eq(rulebookEditions.status, 'published'))
-	)
+	.leftJoin(rulebookEditions, publishedEditionsOf(apiKeys.shopId))
 	.where(and(eq(apiKeys.keyHash, sql.placeholder('keyHash')), isNull(apiKeys.revokedAt)))
 	.orderBy(desc(rulebookEditions.number))
 	.limit(1)
 	.prepare();
-
-export type PublishedEditionRow = { id: string; number: number; publishedAt: Date | null };
 
 type ActiveKey = { id: string; shopId: string; publishedEdition: PublishedEditionRow | null };
 
