@@ -157,6 +157,25 @@ describe('signing in and out', () => {
 		});
 		expect(res.status).toBe(403);
 	});
+
+	it.each([
+		['multipart/form-data; boundary=x', 'https://elsewhere.example'],
+		['text/plain', 'https://elsewhere.example'],
+		['application/x-www-form-urlencoded', undefined]
+	])('refuses a form post of type %s from origin %s, and signs nobody in', async (type, origin) => {
+		const { email, password } = await createShop();
+		const headers: Record<string, string> = { 'content-type': type };
+		if (origin) headers.origin = origin;
+		const res = await fetch(`${newClient().baseUrl}/signin`, {
+			method: 'POST',
+			redirect: 'manual',
+			headers,
+			body: new URLSearchParams({ email, password }).toString()
+		});
+		expect(res.status).toBe(403);
+		expect(await res.text()).toMatch(/Cross-site POST form submissions are forbidden/);
+		expect(res.headers.getSetCookie()).toEqual([]);
+	});
 });
 
 describe('inviting a user', () => {

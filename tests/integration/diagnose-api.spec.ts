@@ -268,3 +268,35 @@ describe('calling the API from a shop website in the browser', () => {
 		expect(res.headers.get('access-control-allow-origin')).toBe('*');
 	});
 });
+
+describe('a body that is not sent as JSON', () => {
+	const body = JSON.stringify({ observations: { temp_gauge: 'high_at_idle' } });
+	it.each([
+		['text/plain;charset=UTF-8', 'what a bare fetch with a string body sends', undefined],
+		['text/plain', 'from a shop website', 'https://intake.cinderhill.example'],
+		['application/x-www-form-urlencoded', 'a form post', 'https://intake.cinderhill.example'],
+		['multipart/form-data; boundary=x', 'a multipart post', undefined]
+	])(
+		'is answered 415 unsupported_media_type in the contract shape (%s: %s)',
+		async (type, _what, origin) => {
+			const headers: Record<string, string> = { ...auth, 'content-type': type };
+			if (origin) headers.origin = origin;
+			for (const path of ['/api/v1/diagnose', '/api/v1/calculators/service-interval']) {
+				const res = await fetch(`${newClient().baseUrl}${path}`, { method: 'POST', headers, body });
+				expect(res.status).toBe(415);
+				expect(res.headers.get('content-type')).toMatch(/^application\/json/);
+				const answer = await res.json();
+				expect(answer.error.code).toBe('unsupported_media_type');
+				expect(answer.error.message).toMatch(/application\/json/);
+				// A browser on the shop's site can read the error.
+				expect(res.headers.get('access-control-allow-origin')).toBe('*');
+			}
+		}
+	);
+
+	it('lists 415 in the published OpenAPI document and its error codes', async () => {
+		const doc = await (await fetch(`${newClient().baseUrl}/api/v1/openapi.json`)).json();
+		expect(doc.paths['/api/v1/diagnose'].post.responses['415']).toBeDefined();
+		expect(JSON.stringify(doc.components.schemas.Error)).toContain('unsupported_media_type');
+	});
+});

@@ -15,9 +15,10 @@ async function sharedDatabase() {
 	return [first, createDatabase(`file:${file}`)] as const;
 }
 
-// 10:00:05 on some day: five seconds into a one-minute window.
+// 10:00:05 on some day: five seconds into a one-minute window. The counters read this clock, never
+// the machine's, so the outcome is the same at any hour (close() flushes at "now").
 const T = Date.UTC(2026, 11, 2, 10, 0, 5);
-const options = { windowS: 60, syncMs: 60_000 };
+const options = { windowS: 60, syncMs: 60_000, now: () => T };
 
 describe('API rate counters shared through the database', () => {
 	it('is exact within one server without waiting for the database', async () => {
@@ -95,7 +96,7 @@ describe('API rate counters shared through the database', () => {
 
 	it('writes on its own after syncMs', async () => {
 		const [db] = await sharedDatabase();
-		const counter = createRateCounter(db, { windowS: 60, syncMs: 20 });
+		const counter = createRateCounter(db, { windowS: 60, syncMs: 20, now: () => T });
 		counter.hit([{ key: 'api:key:timer', limit: 10 }]);
 		counter.hit([{ key: 'api:key:timer', limit: 10 }]);
 		await expect

@@ -11,6 +11,7 @@ export const ERROR_CODES = [
 	'forbidden',
 	'not_found',
 	'too_large',
+	'unsupported_media_type',
 	'rate_limited',
 	'internal_error'
 ] as const;

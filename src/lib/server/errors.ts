@@ -9,6 +9,7 @@ export type AppErrorCode =
 	| 'not_found'
 	| 'conflict'
 	| 'too_large'
+	| 'unsupported_media_type'
 	| 'rate_limited';
 
 export const STATUS_OF: Record<AppErrorCode, number> = {
@@ -18,6 +19,7 @@ export const STATUS_OF: Record<AppErrorCode, number> = {
 	not_found: 404,
 	conflict: 409,
 	too_large: 413,
+	unsupported_media_type: 415,
 	rate_limited: 429
 };
 

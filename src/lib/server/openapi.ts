@@ -52,6 +52,7 @@ function describeCalculatorPaths(): Record<string, unknown> {
 						),
 						'401': errorResponse('No, unknown or revoked key, and no session'),
 						'413': errorResponse('Body over 16 KiB'),
+						'415': errorResponse('Body not sent as application/json'),
 						'429': errorResponse('Over the per-key or per-IP limit; see Retry-After')
 					}
 				}
@@ -109,6 +110,7 @@ export function getOpenApiDocument(): Record<string, unknown> {
 						'401': errorResponse('No, unknown or revoked key, and no session'),
 						'403': errorResponse('Signed in, but the role may not do this'),
 						'413': errorResponse('Body over 64 KiB'),
+						'415': errorResponse('Body not sent as application/json'),
 						'429': errorResponse('Over the per-key or per-IP limit; see Retry-After')
 					}
 				}

@@ -38,8 +38,15 @@ type Entry = {
  */
 export function createRateCounter(
 	db: Database,
-	options: { windowS: number; syncMs: number; onError?: (error: unknown) => void }
+	options: {
+		windowS: number;
+		syncMs: number;
+		onError?: (error: unknown) => void;
+		/** The clock, in ms since the epoch; tests pass their own. */
+		now?: () => number;
+	}
 ): RateCounter {
+	const now = options.now ?? Date.now;
 	const windowMs = options.windowS * 1000;
 	const entries = new Map<string, Entry>();
 	let timer: ReturnType<typeof setTimeout> | undefined;
@@ -57,7 +64,7 @@ export function createRateCounter(
 		timer.unref?.();
 	}
 
-	function hit(buckets: readonly Bucket[], nowMs = Date.now()): RateDecision {
+	function hit(buckets: readonly Bucket[], nowMs = now()): RateDecision {
 		const windowStart = currentWindow(nowMs);
 		let retryAfterS = 0;
 		let count = 0;
@@ -133,7 +140,7 @@ export function createRateCounter(
 		}
 	}
 
-	async function flush(nowMs = Date.now()) {
+	async function flush(nowMs = now()) {
 		// One write at a time, so hits are never added twice.
 		while (flushing) await flushing;
 		flushing = write(nowMs).finally(() => (flushing = undefined));
