@@ -9,7 +9,7 @@ const config = {
 		runes: ({ filename }) => (filename.split(/[/\\]/).includes('node_modules') ? undefined : true)
 	},
 	kit: {
-		adapter: adapter({ out: 'build', precompress: false }),
+		adapter: adapter({ out: 'build', precompress: true }),
 		// The origin check of form posts is done in a hook (src/lib/server/request-origin.ts), so
 		// that the JSON API can answer a non-JSON body in the contract's JSON error shape.
 		csrf: { trustedOrigins: ['*'] }
