@@ -91,15 +91,7 @@ function createLru<K, V>(capacity: number) {
 	};
 }
 
-let compilations = 0;
-
-/** How many times this process has compiled an edition (for tests of the cache). */
-export function countCompilations(): number {
-	return compilations;
-}
-
 function compileEdition(content: unknown): CompiledEdition {
-	compilations++;
 	// createDiagnoser validates the stored content against rulebookSchema and throws if it fails.
 	const diagnoser = createDiagnoser(content as Rulebook);
 	return { rulebook: diagnoser.rulebook, diagnoser, serializer: createResponseSerializer() };
@@ -110,18 +102,25 @@ function compileEdition(content: unknown): CompiledEdition {
  * published is read from the database on every call (no state that matters in memory): here, or
  * with the caller's API key (`authenticateApiKey` reads it in the same statement). Every shop
  * starts with its own copy of the base rulebook, so compiled editions are kept by a hash of their
- * content and shared by every edition id that holds it. A promise is kept, not the result, so
- * that concurrent first requests wait for the one compilation.
+ * content and shared by every edition id that holds it. Promises are kept, not results, so that
+ * concurrent first requests wait for the one read and the one compilation.
  */
 const byContent = createLru<string, Promise<CompiledEdition>>(MAX_COMPILED_EDITIONS);
-const byEditionId = createLru<string, Promise<CompiledEdition>>(MAX_KNOWN_EDITION_IDS);
+const hashByEditionId = createLru<string, string>(MAX_KNOWN_EDITION_IDS);
+/** Editions whose content is being read, by id (an entry lives only while its read runs). */
+const loading = new Map<string, Promise<CompiledEdition>>();
+
+function hashContent(content: unknown): string {
+	return createHash('sha256').update(JSON.stringify(content)).digest('base64url');
+}
 
 async function loadCompiledEdition(editionId: string): Promise<CompiledEdition> {
 	const [{ content }] = await db
 		.select({ content: rulebookEditions.content })
 		.from(rulebookEditions)
 		.where(eq(rulebookEditions.id, editionId));
-	const hash = createHash('sha256').update(JSON.stringify(content)).digest('base64url');
+	const hash = hashContent(content);
+	hashByEditionId.set(editionId, hash);
 	let compiled = byContent.get(hash);
 	if (!compiled) {
 		compiled = Promise.resolve().then(() => compileEdition(content));
@@ -133,13 +132,15 @@ async function loadCompiledEdition(editionId: string): Promise<CompiledEdition> 
 }
 
 function getCompiledEdition(editionId: string): Promise<CompiledEdition> {
-	let compiled = byEditionId.get(editionId);
-	if (!compiled) {
-		compiled = loadCompiledEdition(editionId);
-		byEditionId.set(editionId, compiled);
-		void compiled.catch(() => byEditionId.delete(editionId));
+	const hash = hashByEditionId.get(editionId);
+	const kept = hash === undefined ? undefined : byContent.get(hash);
+	if (kept) return kept;
+	let pending = loading.get(editionId);
+	if (!pending) {
+		pending = loadCompiledEdition(editionId).finally(() => loading.delete(editionId));
+		loading.set(editionId, pending);
 	}
-	return compiled;
+	return pending;
 }
 
 const findPublishedEdition = db
