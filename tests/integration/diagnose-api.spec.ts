@@ -101,6 +101,20 @@ describe('POST /api/v1/diagnose: bad input gets the contract status and changes 
 			{ observations: {}, complaint: 'x'.repeat(2001), saveAsCase: true },
 			'complaint'
 		],
+		// JSON.parse keeps "__proto__" as an own key; a record would drop it and answer as if it
+		// were not there. The other Object.prototype names would read inherited members.
+		[
+			'an observation key "__proto__"',
+			'{"observations":{"__proto__":{"temp_gauge":"high_at_idle"}},"saveAsCase":true}',
+			'observations.__proto__'
+		],
+		...['constructor', 'toString', 'hasOwnProperty', 'valueOf'].map(
+			(key): [string, unknown, string] => [
+				`an observation key "${key}"`,
+				{ observations: { [key]: true }, saveAsCase: true },
+				`observations.${key}`
+			]
+		),
 		[
 			'observations that are not an object',
 			{ observations: [1, 2], saveAsCase: true },

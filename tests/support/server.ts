@@ -18,6 +18,8 @@ export async function freePort(): Promise<number> {
 
 export type RunningServer = {
 	baseUrl: string;
+	/** Process id of the server (the benchmark reads its CPU time). */
+	pid: number;
 	dataDir: string;
 	stop: () => Promise<void>;
 	output: () => string;
@@ -70,6 +72,7 @@ export async function startServer(opts: {
 	}
 	return {
 		baseUrl,
+		pid: child.pid as number,
 		dataDir,
 		output: () => output,
 		stop: () =>

@@ -1,3 +1,4 @@
+// Complaint matching: reads a customer's free text as answers to the rulebook's observations.
 import Fuse from 'fuse.js';
 import type { Observation, ObservationValue, Rulebook } from './schema';
 
@@ -215,23 +216,6 @@ function stemWord(word: string): string {
 	return stem;
 }
 
-function measureEditDistance(a: string, b: string): number {
-	let previous = Array.from({ length: b.length + 1 }, (_, index) => index);
-	for (let i = 1; i <= a.length; i++) {
-		const current = [i];
-		for (let j = 1; j <= b.length; j++) {
-			const cost = a[i - 1] === b[j - 1] ? 0 : 1;
-			current[j] = Math.min(previous[j] + 1, current[j - 1] + 1, previous[j - 1] + cost);
-		}
-		previous = current;
-	}
-	return previous[b.length];
-}
-
-function measureTypoSimilarity(a: string, b: string): number {
-	return 1 - measureEditDistance(a, b) / Math.max(a.length, b.length);
-}
-
 function weighWord(word: string): number {
 	return LITTLE_WORDS.has(word) ? LITTLE_WORD_WEIGHT : 1;
 }
@@ -256,44 +240,8 @@ type WordReading = ReadonlyMap<string, number>;
 const NO_READING: WordReading = new Map();
 /** Readings of words the phrases do not use are kept per edition, up to this many. */
 const MAX_CACHED_READINGS = 10_000;
-/** Longest word the typo pre-check covers: up to here a similarity of MIN_WORD_SIMILARITY allows
- * at most two edits, and two only when both words have at least TWO_EDIT_MIN_LENGTH letters. */
-const MAX_PRECHECKED_WORD_LENGTH = 14;
-const TWO_EDIT_MIN_LENGTH = 8;
-
-/** Every string made from each word by deleting up to `edits` letters, with the words it came
- * from. */
-function indexDeletions(words: readonly string[], edits: number): Map<string, string[]> {
-	const index = new Map<string, string[]>();
-	for (const word of words) {
-		for (const variant of listDeletions(word, edits)) {
-			const sources = index.get(variant);
-			if (sources) sources.push(word);
-			else index.set(variant, [word]);
-		}
-	}
-	return index;
-}
-
-/** The word and every string made from it by deleting up to `edits` letters. */
-function listDeletions(word: string, edits: number): string[] {
-	const found = new Set([word]);
-	let frontier = [word];
-	for (let edit = 0; edit < edits; edit++) {
-		const next: string[] = [];
-		for (const current of frontier) {
-			for (let index = 0; index < current.length; index++) {
-				const variant = current.slice(0, index) + current.slice(index + 1);
-				if (!found.has(variant)) {
-					found.add(variant);
-					next.push(variant);
-				}
-			}
-		}
-		frontier = next;
-	}
-	return [...found];
-}
+/** Highest fuse.js score (errors per letter of the word) a misspelling may have. */
+const FUSE_THRESHOLD = 0.3;
 
 export interface ComplaintMatcher {
 	matchComplaint(complaint: string, skip?: ReadonlySet<string>): ComplaintMatch[];
@@ -364,35 +312,28 @@ export function buildComplaintMatcher(rulebook: Rulebook): ComplaintMatcher {
 	const fuzzyVocabulary = [...usersByWord.keys()].filter(
 		(word) => word.length >= MIN_FUZZY_WORD_LENGTH
 	);
-	const fuseOptions = { includeScore: true, ignoreLocation: true, threshold: 0.35 };
-	const vocabulary = new Fuse(fuzzyVocabulary, fuseOptions);
-	// Two words within k edits share a string reached by at most k deletions from each, so these
-	// indexes find every phrase word a misspelling could stand for.
-	const oneEditAway = indexDeletions(fuzzyVocabulary, 1);
-	const twoEditsAway = indexDeletions(
-		fuzzyVocabulary.filter((word) => word.length >= TWO_EDIT_MIN_LENGTH),
-		2
-	);
-	const longestVocabularyWord = Math.max(0, ...fuzzyVocabulary.map((word) => word.length));
+	// Without the field-length norm, a result's score is the Bitap errors over the word's length.
+	const vocabulary = new Fuse(fuzzyVocabulary, {
+		includeScore: true,
+		ignoreLocation: true,
+		ignoreFieldNorm: true,
+		threshold: FUSE_THRESHOLD
+	});
 	const cachedReadings = new Map<string, WordReading>();
 	const typoReadings = new WeakSet<WordReading>();
 
-	/** fuse.js over the phrase words that could be close enough to `word` to be its misspelling:
-	 * the same results as searching the whole vocabulary, without the cost. */
-	function searchVocabulary(word: string) {
-		if (Math.max(word.length, longestVocabularyWord) > MAX_PRECHECKED_WORD_LENGTH) {
-			return vocabulary.search(word);
-		}
-		const near = new Set<string>();
-		for (const variant of listDeletions(word, 1)) {
-			for (const known of oneEditAway.get(variant) ?? []) near.add(known);
-		}
-		if (word.length >= TWO_EDIT_MIN_LENGTH) {
-			for (const variant of listDeletions(word, 2)) {
-				for (const known of twoEditsAway.get(variant) ?? []) near.add(known);
-			}
-		}
-		return near.size === 0 ? [] : new Fuse([...near], fuseOptions).search(word);
+	/** The phrase words fuse.js finds close to `word`, with how alike they are (0..1). fuse.js
+	 * finds the word inside a longer one as well, so a difference in length counts as errors too
+	 * ("cool" is not "coolant"). */
+	function searchVocabulary(word: string): [string, number][] {
+		return vocabulary.search(word).map((result) => {
+			const known = result.item;
+			const errors = Math.max(
+				Math.round((result.score ?? 1) * word.length),
+				Math.abs(known.length - word.length)
+			);
+			return [known, 1 - errors / Math.max(word.length, known.length)];
+		});
 	}
 
 	function readWord(word: string): WordReading {
@@ -404,9 +345,7 @@ export function buildComplaintMatcher(rulebook: Rulebook): ComplaintMatcher {
 		const cached = cachedReadings.get(word);
 		if (cached) return cached;
 		const reading = new Map<string, number>();
-		for (const result of searchVocabulary(word)) {
-			const known = result.item;
-			const similarity = measureTypoSimilarity(word, known);
+		for (const [known, similarity] of searchVocabulary(word)) {
 			if (similarity >= MIN_WORD_SIMILARITY) reading.set(known, similarity);
 		}
 		if (reading.size > 0) typoReadings.add(reading);

@@ -1,4 +1,4 @@
-import { Engine, OperatorDecorator } from 'json-rules-engine';
+// An edition compiled for fast lookup, each rule also a plain predicate for the look-ahead.
 import type { Evidence } from './rank';
 import {
 	listConditionFacts,
@@ -9,8 +9,7 @@ import {
 	type Observation,
 	type ObservationValue,
 	type Rule,
-	type Rulebook,
-	type TopLevelCondition
+	type Rulebook
 } from './schema';
 
 /** Answers by observation index (rulebook order); undefined = unanswered. An array rather than
@@ -194,101 +193,6 @@ export function evaluateCompiled(compiled: CompiledRulebook, facts: FactVector):
 	const fired = new Uint8Array(compiled.rules.length);
 	for (const rule of compiled.rules) fired[rule.index] = rule.predicate(facts) ? 1 : 0;
 	return fired;
-}
-
-// Every leaf runs through this decorator in the engine, so an unanswered fact (undefined, since
-// allowUndefinedFacts is on) fails the leaf before notEqual/notIn can call it a match.
-const ANSWERED_DECORATOR = 'answered';
-
-function guardCondition(condition: Condition): Condition {
-	if ('all' in condition) return { all: condition.all.map(guardCondition) };
-	if ('any' in condition) return { any: condition.any.map(guardCondition) };
-	return {
-		fact: condition.fact,
-		operator: `${ANSWERED_DECORATOR}:${condition.operator}` as ConditionOperator,
-		value: condition.value
-	};
-}
-
-export interface EngineEvaluator {
-	/**
-	 * Runs json-rules-engine on the answers. With `skipWaitingRules`, the run leaves out the
-	 * rules that cannot fire because an observation every way of satisfying them needs is
-	 * unanswered; the result is the same, the run cheaper.
-	 */
-	run(facts: FactVector, options?: { skipWaitingRules?: boolean }): Promise<FiredMask>;
-}
-
-/** A rule has a chance to fire only when every observation it requires is answered. */
-export function canRuleFire(rule: CompiledRule, facts: FactVector): boolean {
-	for (const required of rule.requiredFacts) if (facts[required] === undefined) return false;
-	return true;
-}
-
-// json-rules-engine internals a run view overrides (present in 7.3.1, checked at build time).
-interface EngineInternals {
-	rules: unknown[];
-	prioritizeRules(): unknown[][];
-	prioritizedRules: unknown[][] | null;
-}
-
-/**
- * Builds the json-rules-engine Engine once per edition. Every rule sits at one priority level,
- * and each run goes through its own prototype view of the engine: the engine keeps its run status
- * on the instance, and a run that finishes would otherwise make a run started in the same tick
- * skip its rules (seen with a single priority level too).
- */
-export function buildEngineEvaluator(compiled: CompiledRulebook): EngineEvaluator {
-	const engine = new Engine([], { allowUndefinedFacts: true });
-	engine.addOperatorDecorator(
-		new OperatorDecorator(
-			ANSWERED_DECORATOR,
-			(factValue: unknown, jsonValue: unknown, next: (a: unknown, b: unknown) => boolean) =>
-				next(factValue, jsonValue),
-			(factValue: unknown) => factValue !== undefined && factValue !== null
-		)
-	);
-	for (const rule of compiled.rules) {
-		engine.addRule({
-			name: rule.key,
-			priority: 1,
-			conditions: guardCondition(rule.rule.conditions) as TopLevelCondition as never,
-			event: { type: rule.key }
-		});
-	}
-	const internals = engine as unknown as EngineInternals;
-	// Cache the priority sets on the engine itself so the per-run views never write them.
-	internals.prioritizeRules();
-	if (!Array.isArray(internals.rules) || internals.rules.length !== compiled.rules.length) {
-		throw new Error('json-rules-engine no longer keeps its rules in engine.rules');
-	}
-	const engineRules = internals.rules;
-	const ruleIndexByKey = compiled.ruleIndexByKey;
-	const ruleCount = compiled.rules.length;
-	const observationKeys = compiled.rulebook.observations.map((observation) => observation.key);
-
-	return {
-		async run(facts, options = {}) {
-			const runtimeFacts: Record<string, ObservationValue> = Object.create(null);
-			facts.forEach((value, index) => {
-				if (value !== undefined && value !== null) runtimeFacts[observationKeys[index]] = value;
-			});
-			const view = Object.create(engine) as Engine & EngineInternals;
-			if (options.skipWaitingRules) {
-				// The view's own one-priority rule set; the shared engine is left untouched.
-				view.prioritizedRules = [
-					engineRules.filter((_, index) => canRuleFire(compiled.rules[index], facts))
-				];
-			}
-			const { events } = await view.run(runtimeFacts);
-			const fired = new Uint8Array(ruleCount);
-			for (const event of events) {
-				const index = ruleIndexByKey.get(event.type);
-				if (index !== undefined) fired[index] = 1;
-			}
-			return fired;
-		}
-	};
 }
 
 export function listFiredRuleKeys(compiled: CompiledRulebook, fired: FiredMask): string[] {

@@ -1,25 +1,18 @@
+// The diagnosis engine: one diagnoser per rulebook edition ranks causes, next questions and tests.
 import { buildComplaintMatcher, type ComplaintMatch } from './complaint';
-import {
-	buildEngineEvaluator,
-	compileRulebook,
-	evaluateCompiled,
-	listFiredRuleKeys,
-	toFactVector,
-	type FiredMask
-} from './evaluate';
+import { buildEngineEvaluator } from './engine';
+import { compileRulebook, listFiredRuleKeys, toFactVector, type FactVector } from './evaluate';
 import {
 	planNextQuestions,
 	prepareLookAhead,
-	roundGainBits,
 	type FrequencyOverrides,
 	type NextQuestion
 } from './next-question';
-import { logistic, rankCauses, sumLogOdds, type Evidence, type RankedCause } from './rank';
+import { logistic, rankCauses, sumLogOdds, type RankedCause } from './rank';
 import {
 	describeInvalidValue,
 	formatIssuePath,
 	parseRulebook,
-	type Band,
 	type Observation,
 	type ObservationValue,
 	type Rulebook,
@@ -32,9 +25,7 @@ export type { ComplaintMatch } from './complaint';
 export type { Evidence, RankedCause } from './rank';
 export type { FrequencyOverrides, NextQuestion, AnswerOption } from './next-question';
 export type { PlannedTest } from './test-plan';
-export { makeSyntheticRulebook } from './synthetic';
-
-export type Evaluator = 'engine' | 'compiled';
+export { replay, type ReplayCase, type ReplayResult } from './replay';
 
 export interface DiagnoseInput {
 	/** `null` means not known, the same as leaving the key out. */
@@ -45,61 +36,44 @@ export interface DiagnoseInput {
 	complaint?: string;
 }
 
-export interface DiagnoseOptions {
-	/** Which evaluator decides the fired rules. Both give identical results. Default: the
-	 * diagnoser's default, itself 'engine' unless set. */
-	evaluator?: Evaluator;
+export interface AnalyseOptions {
 	/** Answer frequencies for look-ahead, replacing the rulebook's per observation. */
 	frequencies?: FrequencyOverrides;
-	/** `diagnose` only: how many next questions to describe, best first. Default: all. */
+	/** How many next questions to describe, best first. Default: all. */
 	questionLimit?: number;
-	/** `diagnose` only: include each test's steps (default true). */
-	testSteps?: boolean;
 }
 
 export interface DiagnoserOptions {
-	evaluator?: Evaluator;
 	frequencies?: FrequencyOverrides;
 }
 
-export interface DiagnosedCause {
-	key: string;
-	name: string;
-	probability: number;
-	band: Band;
-	evidence: Evidence[];
-}
-
-export type DiagnosedTest = Omit<PlannedTest, 'steps'> & { steps?: string[] };
-
-export interface Diagnosis {
-	causes: DiagnosedCause[];
-	nextQuestions: NextQuestion[];
-	tests: DiagnosedTest[];
-	matched: ComplaintMatch[];
-	cautions: string[];
-}
-
-/** Everything `diagnose` computes, at full precision (for replay, tuning and tests). */
-export interface Analysis {
+/** The causes ranked on the answers, at full precision: what replay compares. */
+export interface Ranking {
 	causes: RankedCause[];
-	nextQuestions: NextQuestion[];
-	tests: PlannedTest[];
 	matched: ComplaintMatch[];
-	cautions: string[];
 	/** The answers the ranking used (explicit and matched), in rulebook order. */
 	facts: Record<string, ObservationValue>;
+	/** Keys of the rules json-rules-engine fired, in rulebook order. */
 	firedRules: string[];
+}
+
+/** Everything a diagnosis computes, at full precision (the API rounds it when it answers). */
+export interface Analysis extends Ranking {
+	nextQuestions: NextQuestion[];
+	tests: PlannedTest[];
+	cautions: string[];
 }
 
 export interface Diagnoser {
 	readonly rulebook: Rulebook;
-	diagnose(input: DiagnoseInput, options?: DiagnoseOptions): Promise<Diagnosis>;
-	analyse(input: DiagnoseInput, options?: DiagnoseOptions): Promise<Analysis>;
+	/** Ranks the causes only (no look-ahead, no test plan). */
+	rank(input: DiagnoseInput): Promise<Ranking>;
+	analyse(input: DiagnoseInput, options?: AnalyseOptions): Promise<Analysis>;
 	/** Keys of the rules json-rules-engine fires on these answers, in rulebook order. */
-	evaluateWithEngine(facts: Record<string, ObservationValue | null | undefined>): Promise<string[]>;
-	/** Keys of the rules the compiled predicates fire on these answers, in rulebook order. */
-	evaluateCompiled(facts: Record<string, ObservationValue | null | undefined>): string[];
+	evaluateWithEngine(
+		facts: Record<string, ObservationValue | null | undefined>,
+		options?: { skipWaitingRules?: boolean }
+	): Promise<string[]>;
 	matchComplaint(complaint: string, skip?: ReadonlySet<string>): ComplaintMatch[];
 	/** `validateObservations` against this edition, with its observations indexed once. */
 	validateObservations(
@@ -111,19 +85,13 @@ export interface Diagnoser {
 /** How many of the first planned tests lend their cautions to the response's cautions. */
 const FIRST_TESTS_WITH_CAUTIONS = 3;
 
-function roundTo(value: number, decimals: number): number {
-	const factor = 10 ** decimals;
-	const rounded = Math.round(value * factor) / factor;
-	return rounded === 0 ? 0 : rounded;
-}
-
 function listUnique(items: Iterable<string>): string[] {
 	return [...new Set(items)];
 }
 
 /**
- * Builds everything an edition needs once (engine, compiled predicates, look-ahead index,
- * complaint matcher); reuse the diagnoser for every request scored with that edition.
+ * Builds everything an edition needs once (json-rules-engine, the look-ahead's predicates and
+ * index, the complaint matcher); reuse the diagnoser for every request scored with that edition.
  * Throws when the rulebook does not pass `rulebookSchema`.
  */
 export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = {}): Diagnoser {
@@ -140,9 +108,9 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 	const matcher = buildComplaintMatcher(book);
 	const testTargets = findTestTargets(compiled);
 	const causesByKey = new Map(book.causes.map((cause) => [cause.key, cause]));
-	const defaultEvaluator = options.evaluator ?? 'engine';
 
-	async function score(input: DiagnoseInput, runOptions: DiagnoseOptions = {}) {
+	/** The answers (explicit, then matched from the complaint) and the rules they fire. */
+	async function decide(input: DiagnoseInput) {
 		const unknown = new Set(
 			(input.unknown ?? []).filter((key) => compiled.observationsByKey.has(key))
 		);
@@ -153,24 +121,32 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 		) as [string, ObservationValue][];
 		const settled = new Set([...explicit.map(([key]) => key), ...unknown]);
 		const matched = input.complaint ? matcher.matchComplaint(input.complaint, settled) : [];
-		const answers: [string, ObservationValue][] = [
+		const facts = toFactVector(compiled, [
 			...explicit,
 			...matched.map((match): [string, ObservationValue] => [match.key, match.value])
-		];
-		const facts = toFactVector(compiled, answers);
-		const isAnswered = (key: string) =>
-			facts[compiled.observationIndexByKey.get(key) ?? -1] !== undefined;
-
-		const evaluator = runOptions.evaluator ?? defaultEvaluator;
-		const fired: FiredMask =
-			evaluator === 'engine'
-				? await engine.run(facts, { skipWaitingRules: true })
-				: evaluateCompiled(compiled, facts);
+		]);
+		const fired = await engine.run(facts, { skipWaitingRules: true });
 		const logOdds = sumLogOdds(compiled, fired);
-		const causes = rankCauses(compiled, fired, logOdds);
-		const probabilities = logOdds.map(logistic);
-		const causeOrder = causes.map((cause) => compiled.causeIndexByKey.get(cause.key) as number);
+		return {
+			unknown,
+			matched,
+			facts,
+			fired,
+			logOdds,
+			causes: rankCauses(compiled, fired, logOdds)
+		};
+	}
 
+	function describeFacts(facts: FactVector): Record<string, ObservationValue> {
+		return Object.fromEntries(
+			book.observations.flatMap((observation, index) =>
+				facts[index] === undefined ? [] : [[observation.key, facts[index]]]
+			)
+		);
+	}
+
+	async function analyse(input: DiagnoseInput, runOptions: AnalyseOptions = {}): Promise<Analysis> {
+		const { unknown, matched, facts, fired, logOdds, causes } = await decide(input);
 		const nextQuestions = planNextQuestions(
 			compiled,
 			{ facts, fired, logOdds },
@@ -178,12 +154,14 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 			runOptions.frequencies ?? options.frequencies,
 			runOptions.questionLimit
 		);
+		const causeOrder = causes.map((cause) => compiled.causeIndexByKey.get(cause.key) as number);
 		const tests = planTests(
 			compiled,
 			testTargets,
-			probabilities,
+			logOdds.map(logistic),
 			causeOrder,
-			(key) => isAnswered(key) || unknown.has(key)
+			(key) =>
+				facts[compiled.observationIndexByKey.get(key) ?? -1] !== undefined || unknown.has(key)
 		);
 		const cautions = listUnique([
 			...book.meta.cautions,
@@ -192,18 +170,13 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 				.flatMap((cause) => causesByKey.get(cause.key)?.cautions ?? []),
 			...tests.slice(0, FIRST_TESTS_WITH_CAUTIONS).flatMap((test) => test.cautions)
 		]);
-		return { causes, nextQuestions, tests, matched, cautions, facts, fired };
-	}
-
-	async function analyse(input: DiagnoseInput, runOptions?: DiagnoseOptions): Promise<Analysis> {
-		const { facts, fired, ...scored } = await score(input, runOptions);
 		return {
-			...scored,
-			facts: Object.fromEntries(
-				book.observations.flatMap((observation, index) =>
-					facts[index] === undefined ? [] : [[observation.key, facts[index]]]
-				)
-			),
+			causes,
+			nextQuestions,
+			tests,
+			matched,
+			cautions,
+			facts: describeFacts(facts),
 			firedRules: listFiredRuleKeys(compiled, fired)
 		};
 	}
@@ -211,52 +184,19 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 	return {
 		rulebook: book,
 		analyse,
-		async diagnose(input, runOptions) {
-			const analysis = await score(input, runOptions);
-			const withSteps = runOptions?.testSteps ?? true;
-			const causes: DiagnosedCause[] = analysis.causes.map((cause) => ({
-				key: cause.key,
-				name: cause.name,
-				probability: roundTo(cause.probability, 4),
-				band: cause.band,
-				evidence: cause.evidence
-			}));
-			for (const question of analysis.nextQuestions) {
-				question.expectedGain = roundGainBits(question.expectedGain);
-			}
-			const tests = analysis.tests.map((test): DiagnosedTest => {
-				const shown: DiagnosedTest = {
-					key: test.key,
-					name: test.name,
-					minutes: test.minutes,
-					targets: test.targets,
-					priority: test.priority,
-					cautions: test.cautions,
-					equipment: test.equipment,
-					sets: test.sets,
-					score: roundTo(test.score, 6)
-				};
-				if (withSteps) shown.steps = test.steps;
-				return shown;
-			});
+		async rank(input) {
+			const { matched, facts, fired, causes } = await decide(input);
 			return {
 				causes,
-				nextQuestions: analysis.nextQuestions,
-				tests,
-				matched: analysis.matched.map((match) => ({ ...match, score: roundTo(match.score, 4) })),
-				cautions: analysis.cautions
+				matched,
+				facts: describeFacts(facts),
+				firedRules: listFiredRuleKeys(compiled, fired)
 			};
 		},
-		async evaluateWithEngine(facts) {
+		async evaluateWithEngine(facts, runOptions) {
 			return listFiredRuleKeys(
 				compiled,
-				await engine.run(toFactVector(compiled, Object.entries(facts)))
-			);
-		},
-		evaluateCompiled(facts) {
-			return listFiredRuleKeys(
-				compiled,
-				evaluateCompiled(compiled, toFactVector(compiled, Object.entries(facts)))
+				await engine.run(toFactVector(compiled, Object.entries(facts)), runOptions)
 			);
 		},
 		matchComplaint(complaint, skip) {

@@ -1,3 +1,5 @@
+// Next questions: which unanswered observation would most reduce the uncertainty of the causes.
+import { GAIN_DECIMALS, roundTo } from '../api/round';
 import type { CompiledRule, CompiledRulebook, FactVector, FiredMask } from './evaluate';
 import type {
 	Bin,
@@ -270,9 +272,9 @@ export function planNextQuestions(
 	return questions;
 }
 
+/** The gain as a response shows it: questions are ordered by what the caller will see. */
 export function roundGainBits(gain: number): number {
-	const rounded = Math.round(gain * 1e4) / 1e4;
-	return rounded === 0 ? 0 : rounded;
+	return roundTo(gain, GAIN_DECIMALS);
 }
 
 function describeQuestion(observation: Observation, expectedGain: number): NextQuestion {

@@ -46,12 +46,7 @@ export const configSchema = z.object({
 	/** How often each server adds its API hits to the shared counters in the database. */
 	RATE_LIMIT_SYNC_MS: positiveInt(1000),
 	LOGIN_MAX_ATTEMPTS: positiveInt(5),
-	SIGNUP_LIMIT_PER_HOUR: positiveInt(10),
-	/**
-	 * Which evaluator decides the fired rules: the compiled predicates (default; proven equal to
-	 * json-rules-engine on random answer sets in the unit tests) or json-rules-engine itself.
-	 */
-	DIAGNOSIS_EVALUATOR: z.enum(['compiled', 'engine']).optional().default('compiled')
+	SIGNUP_LIMIT_PER_HOUR: positiveInt(10)
 });
 
 export type Config = z.infer<typeof configSchema>;

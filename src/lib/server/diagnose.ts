@@ -1,4 +1,5 @@
-import { diagnoseRequestSchema, type DiagnoseRequest } from '../diagnosis/api-schema';
+import { shapeDiagnosis } from '../api/diagnosis-response';
+import { diagnoseRequestSchema, type DiagnoseRequest } from '../api/schema';
 import { db } from './db';
 import { cases } from './db/schema';
 import { generateId } from './auth/crypto';
@@ -31,16 +32,18 @@ export async function diagnoseForShop(caller: ApiCaller, request: DiagnoseReques
 	if (issues.length) {
 		throw new AppError('invalid_request', 'Some observations are not understood.', { issues });
 	}
-	const diagnosis = await edition.diagnoser.diagnose(
+	const analysis = await edition.diagnoser.analyse(
 		{
 			observations: request.observations,
 			unknown: request.unknown,
 			complaint: request.complaint
 		},
 		// The contract promises at least the best five questions; ten keep the answer small for
-		// intake forms. Test steps are for the bay, not for an intake form.
-		{ questionLimit: NEXT_QUESTIONS_IN_RESPONSE, testSteps: false }
+		// intake forms.
+		{ questionLimit: NEXT_QUESTIONS_IN_RESPONSE }
 	);
+	// Test steps are for the bay, not for an intake form.
+	const diagnosis = shapeDiagnosis(analysis, { testSteps: false });
 	let caseId: string | null = null;
 	if (request.saveAsCase) {
 		caseId = generateId();

@@ -1,6 +1,8 @@
+// Rulebook editions of a shop: the base edition for new shops, and the compiled published one.
+import { createHash } from 'node:crypto';
 import { and, desc, eq, sql, type SQLWrapper } from 'drizzle-orm';
 import { createDiagnoser, type Diagnoser } from '../diagnosis';
-import { createResponseSerializer, type ResponseSerializer } from '../diagnosis/response-json';
+import { createResponseSerializer, type ResponseSerializer } from '../api/response-json';
 import { loadRulebookFromDir } from '../diagnosis/load';
 import type { Rulebook } from '../diagnosis/schema';
 import { db } from './db';
@@ -61,13 +63,85 @@ export type PublishedEdition = PublishedEditionRow & CompiledEdition;
 export const publishedEditionsOf = (shopId: SQLWrapper) =>
 	and(eq(rulebookEditions.shopId, shopId), eq(rulebookEditions.status, 'published'));
 
+/** Compiled editions kept (each a few megabytes); the least recently used goes first. */
+export const MAX_COMPILED_EDITIONS = 32;
+/** Edition ids remembered with the content they hold (a reference each). */
+export const MAX_KNOWN_EDITION_IDS = 20_000;
+
+/** A Map used as a least-recently-used cache: a hit moves the entry to the end. */
+function createLru<K, V>(capacity: number) {
+	const entries = new Map<K, V>();
+	return {
+		get(key: K): V | undefined {
+			const value = entries.get(key);
+			if (value !== undefined) {
+				entries.delete(key);
+				entries.set(key, value);
+			}
+			return value;
+		},
+		set(key: K, value: V) {
+			entries.delete(key);
+			entries.set(key, value);
+			if (entries.size > capacity) entries.delete(entries.keys().next().value as K);
+		},
+		delete(key: K) {
+			entries.delete(key);
+		}
+	};
+}
+
+function compileEdition(content: unknown): CompiledEdition {
+	// createDiagnoser validates the stored content against rulebookSchema and throws if it fails.
+	const diagnoser = createDiagnoser(content as Rulebook);
+	return { rulebook: diagnoser.rulebook, diagnoser, serializer: createResponseSerializer() };
+}
+
 /**
- * Editions never change once published, so their compiled diagnoser is cached by id; which
- * edition is published is read from the database on every call (no state that matters in memory):
- * here, or with the caller's API key (`authenticateApiKey` reads it in the same statement).
+ * Editions never change once published, so each is compiled once and kept; which edition is
+ * published is read from the database on every call (no state that matters in memory): here, or
+ * with the caller's API key (`authenticateApiKey` reads it in the same statement). Every shop
+ * starts with its own copy of the base rulebook, so compiled editions are kept by a hash of their
+ * content and shared by every edition id that holds it. Promises are kept, not results, so that
+ * concurrent first requests wait for the one read and the one compilation.
  */
-const diagnosers = new Map<string, CompiledEdition>();
-const MAX_CACHED_EDITIONS = 200;
+const byContent = createLru<string, Promise<CompiledEdition>>(MAX_COMPILED_EDITIONS);
+const hashByEditionId = createLru<string, string>(MAX_KNOWN_EDITION_IDS);
+/** Editions whose content is being read, by id (an entry lives only while its read runs). */
+const loading = new Map<string, Promise<CompiledEdition>>();
+
+function hashContent(content: unknown): string {
+	return createHash('sha256').update(JSON.stringify(content)).digest('base64url');
+}
+
+async function loadCompiledEdition(editionId: string): Promise<CompiledEdition> {
+	const [{ content }] = await db
+		.select({ content: rulebookEditions.content })
+		.from(rulebookEditions)
+		.where(eq(rulebookEditions.id, editionId));
+	const hash = hashContent(content);
+	hashByEditionId.set(editionId, hash);
+	let compiled = byContent.get(hash);
+	if (!compiled) {
+		compiled = Promise.resolve().then(() => compileEdition(content));
+		byContent.set(hash, compiled);
+		// A failed compilation is not kept: the next request tries again.
+		void compiled.catch(() => byContent.delete(hash));
+	}
+	return compiled;
+}
+
+function getCompiledEdition(editionId: string): Promise<CompiledEdition> {
+	const hash = hashByEditionId.get(editionId);
+	const kept = hash === undefined ? undefined : byContent.get(hash);
+	if (kept) return kept;
+	let pending = loading.get(editionId);
+	if (!pending) {
+		pending = loadCompiledEdition(editionId).finally(() => loading.delete(editionId));
+		loading.set(editionId, pending);
+	}
+	return pending;
+}
 
 const findPublishedEdition = db
 	.select({
@@ -88,23 +162,7 @@ export async function getPublishedEdition(
 	const row =
 		alreadyRead === undefined ? (await findPublishedEdition.all({ shopId }))[0] : alreadyRead;
 	if (!row) throw new AppError('not_found', 'This shop has no published rulebook edition.');
-	let compiled = diagnosers.get(row.id);
-	if (!compiled) {
-		const [{ content }] = await db
-			.select({ content: rulebookEditions.content })
-			.from(rulebookEditions)
-			.where(eq(rulebookEditions.id, row.id));
-		// createDiagnoser validates the stored content against rulebookSchema and throws if it fails.
-		const diagnoser = createDiagnoser(content as Rulebook, {
-			evaluator: getConfig().DIAGNOSIS_EVALUATOR
-		});
-		compiled = { rulebook: diagnoser.rulebook, diagnoser, serializer: createResponseSerializer() };
-		if (diagnosers.size >= MAX_CACHED_EDITIONS) {
-			diagnosers.delete(diagnosers.keys().next().value!);
-		}
-		diagnosers.set(row.id, compiled);
-	}
-	return { ...row, ...compiled };
+	return { ...row, ...(await getCompiledEdition(row.id)) };
 }
 
 export async function listEditions(shopId: string) {

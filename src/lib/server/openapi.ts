@@ -1,9 +1,5 @@
 import { z } from 'zod';
-import {
-	apiErrorSchema,
-	diagnoseRequestSchema,
-	diagnoseResponseSchema
-} from '../diagnosis/api-schema';
+import { apiErrorSchema, diagnoseRequestSchema, diagnoseResponseSchema } from '../api/schema';
 import { calculatorNames, calculatorResultSchema, calculators } from '../calculators';
 
 const schema = (s: z.ZodType, io: 'input' | 'output') =>

@@ -1,6 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { createDiagnoser, type Phrase, type Rulebook } from '../../../src/lib/diagnosis';
-import { makeBooleanObservation, makeCoolingRulebook, makeEnumObservation } from './factories';
+import {
+	diagnose,
+	makeBooleanObservation,
+	makeCoolingRulebook,
+	makeEnumObservation
+} from './factories';
 
 // The phrases are the cooling fixture's (invented); the complaints are what customers say.
 const diagnoser = createDiagnoser(makeCoolingRulebook());
@@ -282,11 +287,11 @@ describe('complaint matching: rival readings', () => {
 
 describe('complaint evidence in a diagnosis', () => {
 	it('uses matched values as evidence', async () => {
-		const withComplaint = await diagnoser.diagnose({
+		const withComplaint = await diagnose(diagnoser, {
 			observations: {},
 			complaint: 'sweet smell inside the car and the windows fog up'
 		});
-		const explicit = await diagnoser.diagnose({
+		const explicit = await diagnose(diagnoser, {
 			observations: { sweet_smell: 'cabin', windscreen_film: true }
 		});
 		expect(withComplaint.causes).toEqual(explicit.causes);
@@ -298,7 +303,7 @@ describe('complaint evidence in a diagnosis', () => {
 	});
 
 	it('lets an explicit answer or an unknown win over a matched one', async () => {
-		const diagnosis = await diagnoser.diagnose({
+		const diagnosis = await diagnose(diagnoser, {
 			observations: { sweet_smell: 'none' },
 			unknown: ['windscreen_film'],
 			complaint: 'sweet smell inside the car and the windows fog up'
@@ -309,7 +314,7 @@ describe('complaint evidence in a diagnosis', () => {
 	});
 
 	it('rounds match scores to 4 decimals in the response', async () => {
-		const { matched } = await diagnoser.diagnose({
+		const { matched } = await diagnose(diagnoser, {
 			observations: {},
 			complaint: 'gets hot sitting in traffic'
 		});

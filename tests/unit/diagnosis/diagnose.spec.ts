@@ -1,17 +1,13 @@
 import { z } from 'zod';
 import { describe, expect, it } from 'vitest';
-import {
-	createDiagnoser,
-	makeSyntheticRulebook,
-	parseRulebook,
-	validateObservations
-} from '../../../src/lib/diagnosis';
+import { makeSyntheticRulebook } from '../../support/synthetic-rulebook';
+import { createDiagnoser, parseRulebook, validateObservations } from '../../../src/lib/diagnosis';
 import {
 	apiErrorSchema,
 	diagnoseRequestSchema,
 	diagnoseResponseSchema
-} from '../../../src/lib/diagnosis/api-schema';
-import { makeCoolingRulebook, makeRandomRulebook, makeRulebook } from './factories';
+} from '../../../src/lib/api/schema';
+import { diagnose, makeCoolingRulebook, makeRandomRulebook, makeRulebook } from './factories';
 
 describe('validateObservations', () => {
 	const rulebook = makeCoolingRulebook();
@@ -83,8 +79,8 @@ describe('createDiagnoser', () => {
 
 	it('ignores answers to observations the rulebook does not have', async () => {
 		const diagnoser = createDiagnoser(makeCoolingRulebook());
-		const plain = await diagnoser.diagnose({ observations: { temp_gauge: 'high_at_idle' } });
-		const extra = await diagnoser.diagnose({
+		const plain = await diagnose(diagnoser, { observations: { temp_gauge: 'high_at_idle' } });
+		const extra = await diagnose(diagnoser, {
 			observations: { temp_gauge: 'high_at_idle', constructor: true, no_such_key: 'x' }
 		});
 		expect(extra).toEqual(plain);
@@ -92,7 +88,7 @@ describe('createDiagnoser', () => {
 
 	it('lists every cause, rounded to 4 decimals, with name, band and evidence', async () => {
 		const rulebook = makeCoolingRulebook();
-		const diagnosis = await createDiagnoser(rulebook).diagnose({
+		const diagnosis = await diagnose(createDiagnoser(rulebook), {
 			observations: { fan_runs_when_hot: false }
 		});
 		expect(diagnosis.causes.map((cause) => cause.key).sort()).toEqual(
@@ -184,7 +180,7 @@ describe('API schemas', () => {
 
 	it('describes a real diagnosis as a valid response', async () => {
 		const diagnoser = createDiagnoser(makeRandomRulebook(3));
-		const diagnosis = await diagnoser.diagnose({ observations: {}, complaint: 'nothing to see' });
+		const diagnosis = await diagnose(diagnoser, { observations: {}, complaint: 'nothing to see' });
 		const response = { rulebook: { edition: 1, publishedAt: null }, ...diagnosis, caseId: null };
 		expect(diagnoseResponseSchema.safeParse(response).success).toBe(true);
 		expect(

@@ -4,17 +4,19 @@ import { createDiagnoser } from '../../../src/lib/diagnosis';
 import {
 	buildEngineEvaluator,
 	canRuleFire,
-	compileRulebook,
-	toFactVector
-} from '../../../src/lib/diagnosis/evaluate';
+	MAX_ENGINE_SETS
+} from '../../../src/lib/diagnosis/engine';
+import { compileRulebook, toFactVector } from '../../../src/lib/diagnosis/evaluate';
 import type { ObservationValue, TopLevelCondition } from '../../../src/lib/diagnosis/schema';
 import {
+	diagnose,
 	createRng,
 	makeCoolingRulebook,
 	makeRandomFacts,
 	makeRandomRulebook,
 	makeRule,
-	makeRulebook
+	makeRulebook,
+	makePredicateEvaluator
 } from './factories';
 
 describe('compiled predicates', () => {
@@ -28,12 +30,13 @@ describe('compiled predicates', () => {
 			const diagnoser = createDiagnoser(
 				makeRandomRulebook(seed, { causes: 8, observations: 20, rules: 40, tests: 4 })
 			);
+			const evaluateCompiled = makePredicateEvaluator(diagnoser.rulebook);
 			const rng = createRng(seed * 7919);
 			for (let run = 0; run < 500; run++) {
 				// From nearly empty to nearly complete answers, with nulls among the unanswered.
 				const facts = makeRandomFacts(diagnoser.rulebook, rng, [0.1, 0.4, 0.7, 0.95][run % 4]);
 				const byEngine = await diagnoser.evaluateWithEngine(facts);
-				expect(diagnoser.evaluateCompiled(facts), JSON.stringify(facts)).toEqual(byEngine);
+				expect(evaluateCompiled(facts), JSON.stringify(facts)).toEqual(byEngine);
 				compared++;
 				firedTotal += byEngine.length;
 				possibleTotal += diagnoser.rulebook.rules.length;
@@ -106,13 +109,14 @@ describe('an unanswered observation', () => {
 
 	it('never satisfies notEqual or notIn, alone or nested in any/all', async () => {
 		const diagnoser = createDiagnoser(makeNegativeRulebook());
+		const evaluateCompiled = makePredicateEvaluator(diagnoser.rulebook);
 		for (const facts of [
 			{},
 			{ temp_gauge: null, fan_runs_when_hot: null, loss_l_per_week: null },
 			{ fan_circuit_test: 'ok' as ObservationValue }
 		]) {
 			const engineFired = await diagnoser.evaluateWithEngine(facts);
-			const compiledFired = diagnoser.evaluateCompiled(facts);
+			const compiledFired = evaluateCompiled(facts);
 			for (const [key] of negativeRules) {
 				expect(engineFired).not.toContain(`only-${key}`);
 				expect(compiledFired).not.toContain(`only-${key}`);
@@ -125,7 +129,7 @@ describe('an unanswered observation', () => {
 		const facts = { temp_gauge: 'high_at_speed', fan_runs_when_hot: false, loss_l_per_week: 2 };
 		const fired = await diagnoser.evaluateWithEngine(facts);
 		for (const [key] of negativeRules) expect(fired).toContain(`only-${key}`);
-		expect(diagnoser.evaluateCompiled(facts)).toEqual(fired);
+		expect(makePredicateEvaluator(diagnoser.rulebook)(facts)).toEqual(fired);
 	});
 
 	it('would satisfy notEqual in a plain json-rules-engine, which is why the engine is guarded', async () => {
@@ -145,8 +149,8 @@ describe('an unanswered observation', () => {
 
 	it('counts as no evidence when it is listed as unknown or answered null', async () => {
 		const diagnoser = createDiagnoser(makeNegativeRulebook());
-		const empty = await diagnoser.diagnose({ observations: {} });
-		const withNulls = await diagnoser.diagnose({
+		const empty = await diagnose(diagnoser, { observations: {} });
+		const withNulls = await diagnose(diagnoser, {
 			observations: { temp_gauge: null, fan_runs_when_hot: null },
 			unknown: ['loss_l_per_week']
 		});
@@ -162,8 +166,8 @@ describe('concurrent evaluations', () => {
 			observations: makeRandomFacts(diagnoser.rulebook, rng, 0.4)
 		}));
 		const serial = [];
-		for (const input of inputs) serial.push(await diagnoser.diagnose(input));
-		const concurrent = await Promise.all(inputs.map((input) => diagnoser.diagnose(input)));
+		for (const input of inputs) serial.push(await diagnose(diagnoser, input));
+		const concurrent = await Promise.all(inputs.map((input) => diagnose(diagnoser, input)));
 		expect(concurrent).toEqual(serial);
 		// The inputs differ enough that equal results are not a coincidence of empty evidence.
 		expect(new Set(serial.map((result) => result.causes[0].key)).size).toBeGreaterThan(2);
@@ -175,7 +179,7 @@ describe('concurrent evaluations', () => {
 		const expected = await diagnoser.evaluateWithEngine(facts);
 		expect(expected.length).toBeGreaterThan(2);
 		const firedInDiagnosis = async () =>
-			(await diagnoser.analyse({ observations: facts }, { evaluator: 'engine' })).firedRules;
+			(await diagnoser.analyse({ observations: facts })).firedRules;
 		// Start a second run after every possible number of microtask turns of the first one,
 		// through the full engine run and through the diagnosis (which skips waiting rules).
 		for (let delay = 0; delay < 80; delay++) {
@@ -210,16 +214,18 @@ describe('concurrent evaluations', () => {
 	});
 });
 
-describe('evaluators', () => {
-	it('give identical diagnoses through the engine and through compiled predicates', async () => {
-		const rulebook = makeRandomRulebook(21);
-		const diagnoser = createDiagnoser(rulebook);
-		const rng = createRng(2024);
-		for (let run = 0; run < 100; run++) {
-			const input = { observations: makeRandomFacts(rulebook, rng, 0.5) };
-			expect(await diagnoser.diagnose(input, { evaluator: 'compiled' })).toEqual(
-				await diagnoser.diagnose(input, { evaluator: 'engine' })
-			);
-		}
+describe('the engine pool', () => {
+	it('gives each of many overlapping runs an engine set of its own, and builds at most a few', async () => {
+		const compiled = compileRulebook(makeCoolingRulebook());
+		const engine = buildEngineEvaluator(compiled);
+		const rng = createRng(5);
+		const inputs = Array.from({ length: 50 }, () =>
+			toFactVector(compiled, Object.entries(makeRandomFacts(compiled.rulebook, rng, 0.5)))
+		);
+		const serial = [];
+		for (const facts of inputs) serial.push(await engine.run(facts));
+		const concurrent = await Promise.all(inputs.map((facts) => engine.run(facts)));
+		expect(concurrent).toEqual(serial);
+		expect(engine.setsBuilt).toBe(MAX_ENGINE_SETS);
 	});
 });

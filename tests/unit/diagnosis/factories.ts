@@ -1,5 +1,13 @@
 // Fixture rulebooks for the engine's tests. Everything here is invented for the tests: the
 // weights and frequencies are not trade data and must not be read as such.
+import {
+	compileRulebook,
+	evaluateCompiled,
+	listFiredRuleKeys,
+	toFactVector
+} from '../../../src/lib/diagnosis/evaluate';
+import { shapeDiagnosis, type ShapeOptions } from '../../../src/lib/api/diagnosis-response';
+import type { AnalyseOptions, DiagnoseInput, Diagnoser } from '../../../src/lib/diagnosis';
 import type {
 	BooleanObservation,
 	Cause,
@@ -639,4 +647,24 @@ export function makeRandomFacts(
 		else facts[observation.key] = pick(rng, [0, 2.5, 5, 7.5, 10, 15, 20]);
 	}
 	return facts;
+}
+
+/** A diagnosis as the API shapes it (rounded), for tests that read responses. */
+export async function diagnose(
+	diagnoser: Diagnoser,
+	input: DiagnoseInput,
+	options: AnalyseOptions & ShapeOptions = {}
+) {
+	return shapeDiagnosis(await diagnoser.analyse(input, options), options);
+}
+
+/** Keys of the rules the look-ahead's compiled predicates fire on these answers, in rulebook
+ * order: what the property tests compare with json-rules-engine. */
+export function makePredicateEvaluator(rulebook: Rulebook) {
+	const compiled = compileRulebook(rulebook);
+	return (facts: Record<string, ObservationValue | null | undefined>) =>
+		listFiredRuleKeys(
+			compiled,
+			evaluateCompiled(compiled, toFactVector(compiled, Object.entries(facts)))
+		);
 }

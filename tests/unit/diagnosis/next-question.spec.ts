@@ -13,6 +13,7 @@ import {
 } from '../../../src/lib/diagnosis/next-question';
 import { logistic } from '../../../src/lib/diagnosis/rank';
 import {
+	diagnose,
 	createRng,
 	makeBooleanObservation,
 	makeCoolingRulebook,
@@ -32,16 +33,16 @@ async function bruteForceGain(
 	key: string,
 	frequencies?: FrequencyOverrides
 ): Promise<number> {
-	const now = await diagnoser.analyse(input, { evaluator: 'engine' });
+	const now = await diagnoser.analyse(input);
 	const entropyNow = sumEntropyBits(now.causes.map((cause) => cause.probability));
 	const observation = diagnoser.rulebook.observations.find((obs) => obs.key === key);
 	if (!observation) throw new Error(key);
 	let expected = 0;
 	for (const option of listAnswerOptions(observation, frequencies)) {
-		const after = await diagnoser.analyse(
-			{ ...input, observations: { ...input.observations, [key]: option.value } },
-			{ evaluator: 'engine' }
-		);
+		const after = await diagnoser.analyse({
+			...input,
+			observations: { ...input.observations, [key]: option.value }
+		});
 		expected +=
 			option.probability *
 			(entropyNow - sumEntropyBits(after.causes.map((cause) => cause.probability)));
@@ -103,7 +104,7 @@ describe('listAnswerOptions', () => {
 describe('next questions', () => {
 	it('lists every observation neither answered nor unknown, test results included', async () => {
 		const diagnoser = createDiagnoser(makeCoolingRulebook());
-		const diagnosis = await diagnoser.diagnose({
+		const diagnosis = await diagnose(diagnoser, {
 			observations: { temp_gauge: 'high_at_idle', cap_test: null },
 			unknown: ['fan_circuit_test']
 		});
@@ -119,7 +120,7 @@ describe('next questions', () => {
 
 	it('leaves out observations answered through the complaint', async () => {
 		const diagnoser = createDiagnoser(makeCoolingRulebook());
-		const diagnosis = await diagnoser.diagnose({ observations: {}, complaint: 'windows fog up' });
+		const diagnosis = await diagnose(diagnoser, { observations: {}, complaint: 'windows fog up' });
 		expect(diagnosis.nextQuestions.map((question) => question.key)).not.toContain(
 			'windscreen_film'
 		);
@@ -129,7 +130,7 @@ describe('next questions', () => {
 		const diagnoser = createDiagnoser(makeRandomRulebook(51));
 		const rng = createRng(51);
 		for (let run = 0; run < 20; run++) {
-			const { nextQuestions } = await diagnoser.diagnose({
+			const { nextQuestions } = await diagnose(diagnoser, {
 				observations: makeRandomFacts(diagnoser.rulebook, rng, 0.3)
 			});
 			for (let index = 1; index < nextQuestions.length; index++) {
@@ -146,7 +147,7 @@ describe('next questions', () => {
 
 	it('carries kind, group and choices for the interface', async () => {
 		const diagnoser = createDiagnoser(makeCoolingRulebook());
-		const { nextQuestions } = await diagnoser.diagnose({ observations: {} });
+		const { nextQuestions } = await diagnose(diagnoser, { observations: {} });
 		const gauge = nextQuestions.find((question) => question.key === 'temp_gauge');
 		expect(gauge).toMatchObject({
 			kind: 'enum',
@@ -164,9 +165,9 @@ describe('next questions', () => {
 	it('describes only the best few when asked, in the same order', async () => {
 		const diagnoser = createDiagnoser(makeCoolingRulebook());
 		const input = { observations: { coolant_level: 'low' } } as const;
-		const all = (await diagnoser.diagnose(input)).nextQuestions;
+		const all = (await diagnose(diagnoser, input)).nextQuestions;
 		expect(all.length).toBeGreaterThan(3);
-		const best = (await diagnoser.diagnose(input, { questionLimit: 3 })).nextQuestions;
+		const best = (await diagnose(diagnoser, input, { questionLimit: 3 })).nextQuestions;
 		expect(best).toEqual(all.slice(0, 3));
 	});
 

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { createDiagnoser, type ObservationValue } from '../../../src/lib/diagnosis';
 import { assignBand, logistic } from '../../../src/lib/diagnosis/rank';
 import {
+	diagnose,
 	COOLING_FIXTURE_NORMAL_ANSWERS,
 	createRng,
 	makeCause,
@@ -22,7 +23,7 @@ describe('ranking with no evidence', () => {
 			expect(ranked?.probability).toBeCloseTo(cause.prior, 12);
 			expect(ranked?.evidence).toEqual([]);
 		}
-		const diagnosis = await diagnoser.diagnose({ observations: {} });
+		const diagnosis = await diagnose(diagnoser, { observations: {} });
 		expect(diagnosis.causes.map((cause) => cause.probability)).toEqual(
 			[...rulebook.causes].map((cause) => cause.prior).sort((a, b) => b - a)
 		);
@@ -48,7 +49,7 @@ describe('ranking with no evidence', () => {
 describe('ranking with all-normal answers', () => {
 	it('calls no cause likely when every answer is the healthy one', async () => {
 		const diagnoser = createDiagnoser(makeCoolingRulebook());
-		const diagnosis = await diagnoser.diagnose({ observations: COOLING_FIXTURE_NORMAL_ANSWERS });
+		const diagnosis = await diagnose(diagnoser, { observations: COOLING_FIXTURE_NORMAL_ANSWERS });
 		expect(diagnosis.causes.filter((cause) => cause.band === 'likely')).toEqual([]);
 		// And the healthy answers argue against causes rather than for them.
 		for (const cause of diagnosis.causes) {
@@ -118,7 +119,7 @@ describe('posterior arithmetic', () => {
 				})
 			]
 		});
-		const diagnosis = await createDiagnoser(rulebook).diagnose({ observations: {} });
+		const diagnosis = await diagnose(createDiagnoser(rulebook), { observations: {} });
 		expect(diagnosis.causes.map((cause) => cause.key)).toEqual([
 			'alpha_fault',
 			'mid_fault',
@@ -147,7 +148,7 @@ describe('monotonicity', () => {
 		let againstChecks = 0;
 		for (const seed of [41, 42, 43]) {
 			const rulebook = makeRandomRulebook(seed);
-			const diagnoser = createDiagnoser(rulebook, { evaluator: 'compiled' });
+			const diagnoser = createDiagnoser(rulebook);
 			const rulesByKey = new Map(rulebook.rules.map((rule) => [rule.key, rule]));
 			const rng = createRng(seed);
 			for (let run = 0; run < 120; run++) {
@@ -214,14 +215,14 @@ describe('determinism', () => {
 			complaint: 'losing water but no leaks on the drive'
 		}));
 		const forward = [];
-		for (const input of inputs) forward.push(await diagnoser.diagnose(input));
+		for (const input of inputs) forward.push(await diagnose(diagnoser, input));
 		const shuffled = inputs.map((input) => ({
 			observations: Object.fromEntries(Object.entries(input.observations).reverse()),
 			unknown: [...input.unknown].reverse(),
 			complaint: input.complaint
 		}));
 		const backward = [];
-		for (const input of [...shuffled].reverse()) backward.push(await diagnoser.diagnose(input));
+		for (const input of [...shuffled].reverse()) backward.push(await diagnose(diagnoser, input));
 		expect(backward.reverse()).toEqual(forward);
 		expect(JSON.stringify(backward)).toBe(JSON.stringify(forward));
 	});

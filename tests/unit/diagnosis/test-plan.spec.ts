@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { createDiagnoser } from '../../../src/lib/diagnosis';
 import {
+	diagnose,
 	createRng,
 	makeCoolingRulebook,
 	makeRandomFacts,
@@ -96,7 +97,7 @@ describe('test plan', () => {
 
 	it('leaves out tests whose result is answered or unknown', async () => {
 		const diagnoser = createDiagnoser(makeCoolingRulebook());
-		const { tests } = await diagnoser.diagnose({
+		const { tests } = await diagnose(diagnoser, {
 			observations: { cap_test: 'holds_rating', pressure_test: null },
 			unknown: ['combustion_gas_test']
 		});
@@ -108,7 +109,7 @@ describe('test plan', () => {
 
 	it('returns what a technician needs to run the test', async () => {
 		const diagnoser = createDiagnoser(makeCoolingRulebook());
-		const { tests } = await diagnoser.diagnose({ observations: {} });
+		const { tests } = await diagnose(diagnoser, { observations: {} });
 		const pressure = tests.find((test) => test.key === 'pressure_test_system');
 		expect(pressure).toMatchObject({
 			name: 'Cooling system pressure test',
@@ -118,7 +119,7 @@ describe('test plan', () => {
 			sets: 'pressure_test'
 		});
 		expect(pressure?.steps?.length).toBeGreaterThan(0);
-		const brief = await diagnoser.diagnose({ observations: {} }, { testSteps: false });
+		const brief = await diagnose(diagnoser, { observations: {} }, { testSteps: false });
 		expect(brief.tests.map((test) => test.key)).toEqual(tests.map((test) => test.key));
 		expect(brief.tests.every((test) => test.steps === undefined)).toBe(true);
 	});
@@ -127,12 +128,12 @@ describe('test plan', () => {
 describe('cautions of a diagnosis', () => {
 	it('joins the rulebook’s cautions, the likely causes’ and the first tests’, without repeats', async () => {
 		const diagnoser = createDiagnoser(makeCoolingRulebook());
-		const quiet = await diagnoser.diagnose({ observations: {} });
+		const quiet = await diagnose(diagnoser, { observations: {} });
 		expect(quiet.cautions[0]).toBe('Let the engine cool before opening the cooling system.');
 		expect(quiet.cautions).not.toContain(
 			'Do not keep driving an engine that is pushing coolant out.'
 		);
-		const suspicious = await diagnoser.diagnose({
+		const suspicious = await diagnose(diagnoser, {
 			observations: {
 				exhaust_smoke: 'white_persistent',
 				level_drops_between_checks: true,

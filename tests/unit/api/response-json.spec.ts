@@ -1,11 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { createDiagnoser } from '../../../src/lib/diagnosis';
 import { loadRulebookFromDir } from '../../../src/lib/diagnosis/load';
-import { createResponseSerializer, toAsciiJson } from '../../../src/lib/diagnosis/response-json';
-import { createRng, makeRandomFacts } from './factories';
+import { createResponseSerializer, toAsciiJson } from '../../../src/lib/api/response-json';
+import { diagnose, createRng, makeRandomFacts } from '../diagnosis/factories';
 
 const rulebook = loadRulebookFromDir('rules');
-const diagnoser = createDiagnoser(rulebook, { evaluator: 'compiled' });
+const diagnoser = createDiagnoser(rulebook);
 const COMPLAINTS = [
 	'gets hot sitting in traffic, fine on the motorway',
 	'losing coolant but no drips under the car, sweet smell inside – “ça chauffe” 🔥',
@@ -22,7 +22,8 @@ describe('the response serializer', () => {
 		const rng = createRng(20261202);
 		for (let run = 0; run < 300; run++) {
 			const observations = makeRandomFacts(rulebook, rng, rng() * 0.6);
-			const diagnosis = await diagnoser.diagnose(
+			const diagnosis = await diagnose(
+				diagnoser,
 				{ observations, complaint: COMPLAINTS[run % COMPLAINTS.length] },
 				{ questionLimit: run % 3 === 0 ? undefined : 10, testSteps: run % 2 === 0 }
 			);

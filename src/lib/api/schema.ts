@@ -60,15 +60,33 @@ export const vehicleSchema = z
 	})
 	.meta({ description: 'The vehicle, all fields optional.' });
 
+/** Answers by observation key. A key named like an Object.prototype member ("__proto__",
+ * "constructor", "toString") is refused here with its path, as any unknown key is later: a record
+ * cannot hold "__proto__" as data (it would be dropped), and no key may read an inherited value. */
+const observationsSchema = z.preprocess(
+	(input, ctx) => {
+		if (typeof input !== 'object' || input === null) return input;
+		for (const key of Object.keys(input)) {
+			if (key === '__proto__' || key in Object.prototype) {
+				ctx.issues.push({
+					code: 'custom',
+					input,
+					path: [key],
+					message: `unknown observation ${JSON.stringify(key)}`
+				});
+			}
+		}
+		return input;
+	},
+	z.record(z.string().min(1).max(100), observationValueSchema).default({})
+);
+
 export const diagnoseRequestSchema = z
 	.strictObject({
-		observations: z
-			.record(z.string().min(1).max(100), observationValueSchema)
-			.default({})
-			.meta({
-				description: 'Answers by observation key (keys and values from the rulebook vocabulary).',
-				example: { temp_gauge: 'high_at_idle', fan_runs_when_hot: false }
-			}),
+		observations: observationsSchema.meta({
+			description: 'Answers by observation key (keys and values from the rulebook vocabulary).',
+			example: { temp_gauge: 'high_at_idle', fan_runs_when_hot: false }
+		}),
 		unknown: z.array(z.string().min(1).max(100)).max(500).default([]).meta({
 			description:
 				'Observation keys that were asked but could not be answered: no evidence, and left out of nextQuestions.'

@@ -1,4 +1,5 @@
-import type { Condition, Rulebook, TopLevelCondition } from './schema';
+// A rulebook many times the size of another, for benchmarks and scale tests.
+import type { Condition, Rulebook, TopLevelCondition } from '../../src/lib/diagnosis/schema';
 
 function renameFacts(condition: Condition, rename: (key: string) => string): Condition {
 	if ('all' in condition)
