@@ -43,21 +43,23 @@ const SETS: { file: string; seed: number; noise: NoiseModel }[] = [
 
 const percent = (part: number, whole: number) => `${((100 * part) / whole).toFixed(1)} %`;
 
-/** The product's own walk: its best next step, and its best test once it says to stop asking. */
+/** The product's own walk: its best question while one is worth asking, then its advice's test
+ * (or, to isolate the plan, the rulebook's tests in a fixed order). */
 function productSteps(tests: 'plan' | 'fixed', rulebook: Rulebook): StepChooser {
-	const fixedTests = rulebook.tests.map((test) => test.sets);
+	const tested = rulebook.tests.map((test) => test.sets);
 	return (diagnosis: Diagnosis, walk) => {
-		const advice = (diagnosis as Diagnosis & { advice?: { stop: boolean } }).advice;
-		const worth = diagnosis.nextQuestions.filter(
-			(question) => !(question as { lowValue?: boolean }).lowValue
-		);
-		if (!advice) return diagnosis.nextQuestions[0]?.key;
-		if (!advice.stop && worth.length > 0) {
-			const question = worth.find((entry) => entry.group !== 'test_result');
+		if (!diagnosis.advice.stop) {
+			const question = diagnosis.nextQuestions.find(
+				(entry) => !entry.lowValue && !tested.includes(entry.key)
+			);
 			if (question) return question.key;
 		}
-		if (tests === 'plan') return diagnosis.tests[0]?.sets ?? worth[0]?.key;
-		return fixedTests.find((key) => !walk.asked.has(key) && !(key in walk.observations));
+		const next =
+			tests === 'plan'
+				? diagnosis.tests[0]?.sets
+				: tested.find((key) => !walk.asked.has(key) && !(key in walk.observations));
+		// With every test done, the questions left are all that can still be asked.
+		return next ?? diagnosis.nextQuestions[0]?.key;
 	};
 }
 

@@ -7,14 +7,16 @@ import {
 	toFactVector,
 	type FiredMask
 } from './evaluate';
+import { adviseNextStep, findObservationMinutes, type Advice } from './advice';
 import {
-	planNextQuestions,
+	computeQuestionGains,
+	describeNextQuestions,
 	prepareLookAhead,
 	roundGainBits,
 	type FrequencyOverrides,
 	type NextQuestion
 } from './next-question';
-import { logistic, rankCauses, sumLogOdds, type Evidence, type RankedCause } from './rank';
+import { rankCauses, sumLogOdds, type Evidence, type RankedCause } from './rank';
 import {
 	describeInvalidValue,
 	formatIssuePath,
@@ -32,6 +34,7 @@ export type { ComplaintMatch } from './complaint';
 export type { Evidence, RankedCause } from './rank';
 export type { FrequencyOverrides, NextQuestion, AnswerOption } from './next-question';
 export type { PlannedTest } from './test-plan';
+export type { Advice } from './advice';
 export { makeSyntheticRulebook } from './synthetic';
 
 export type Evaluator = 'engine' | 'compiled';
@@ -78,6 +81,8 @@ export interface Diagnosis {
 	tests: DiagnosedTest[];
 	matched: ComplaintMatch[];
 	cautions: string[];
+	/** Whether questions are still worth asking, or the best test is next. */
+	advice: Advice;
 }
 
 /** Everything `diagnose` computes, at full precision (for replay, tuning and tests). */
@@ -87,6 +92,7 @@ export interface Analysis {
 	tests: PlannedTest[];
 	matched: ComplaintMatch[];
 	cautions: string[];
+	advice: Advice;
 	/** The answers the ranking used (explicit and matched), in rulebook order. */
 	facts: Record<string, ObservationValue>;
 	firedRules: string[];
@@ -139,6 +145,7 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 	prepareLookAhead(compiled);
 	const matcher = buildComplaintMatcher(book);
 	const testTargets = findTestTargets(compiled);
+	const observationMinutes = findObservationMinutes(compiled);
 	const causesByKey = new Map(book.causes.map((cause) => [cause.key, cause]));
 	const defaultEvaluator = options.evaluator ?? 'engine';
 
@@ -168,22 +175,27 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 				: evaluateCompiled(compiled, facts);
 		const logOdds = sumLogOdds(compiled, fired);
 		const causes = rankCauses(compiled, fired, logOdds);
-		const probabilities = logOdds.map(logistic);
 		const causeOrder = causes.map((cause) => compiled.causeIndexByKey.get(cause.key) as number);
 
-		const nextQuestions = planNextQuestions(
+		const gains = computeQuestionGains(
 			compiled,
 			{ facts, fired, logOdds },
 			unknown,
-			runOptions.frequencies ?? options.frequencies,
-			runOptions.questionLimit
+			runOptions.frequencies ?? options.frequencies
 		);
 		const tests = planTests(
 			compiled,
 			testTargets,
-			probabilities,
+			gains,
 			causeOrder,
 			(key) => isAnswered(key) || unknown.has(key)
+		);
+		const { advice, lowValue } = adviseNextStep(compiled, gains, observationMinutes, tests);
+		const nextQuestions = describeNextQuestions(
+			compiled,
+			gains,
+			runOptions.questionLimit,
+			lowValue
 		);
 		const cautions = listUnique([
 			...book.meta.cautions,
@@ -192,7 +204,7 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 				.flatMap((cause) => causesByKey.get(cause.key)?.cautions ?? []),
 			...tests.slice(0, FIRST_TESTS_WITH_CAUTIONS).flatMap((test) => test.cautions)
 		]);
-		return { causes, nextQuestions, tests, matched, cautions, facts, fired };
+		return { causes, nextQuestions, tests, matched, cautions, advice, facts, fired };
 	}
 
 	async function analyse(input: DiagnoseInput, runOptions?: DiagnoseOptions): Promise<Analysis> {
@@ -244,7 +256,8 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 				nextQuestions: analysis.nextQuestions,
 				tests,
 				matched: analysis.matched.map((match) => ({ ...match, score: roundTo(match.score, 4) })),
-				cautions: analysis.cautions
+				cautions: analysis.cautions,
+				advice: analysis.advice
 			};
 		},
 		async evaluateWithEngine(facts) {
