@@ -42,3 +42,16 @@ test('a confirming test result is recorded from the plan and re-ranks the causes
 	await choices.getByRole('button').last().click();
 	await expect(page.getByText('Answers so far')).toBeVisible();
 });
+
+test('every test of the plan can be recorded, a numeric result included', async ({ page }) => {
+	const plan = page.getByRole('heading', { name: 'Confirming tests, in order' }).locator('..');
+	const more = plan.getByText(/^More tests/);
+	if (await more.isVisible()) await more.click();
+	const card = plan.getByRole('listitem').filter({ hasText: 'freeze point' });
+	await card.getByRole('button', { name: 'Record result' }).click();
+	// A 30 % glycol mix freezes near −15 °C (US Army TM 5-3895-382-24).
+	await card.getByLabel(/^Result/).fill('-15');
+	await card.getByRole('button', { name: 'Record', exact: true }).click();
+	await expect(page.getByText('Answers so far')).toBeVisible();
+	await expect(page.getByText('-15 degC')).toBeVisible();
+});

@@ -1,5 +1,6 @@
 // The diagnosis as the API answers it: an analysis rounded and trimmed to the contract's shape.
 import type {
+	Advice,
 	Analysis,
 	Band,
 	ComplaintMatch,
@@ -31,6 +32,8 @@ export interface Diagnosis {
 	tests: DiagnosedTest[];
 	matched: ComplaintMatch[];
 	cautions: string[];
+	/** Whether questions are still worth asking, or the best test is next. */
+	advice: Advice;
 }
 
 export interface ShapeOptions {
@@ -74,6 +77,7 @@ export function shapeDiagnosis(analysis: Analysis, options: ShapeOptions = {}): 
 			...match,
 			score: roundTo(match.score, MATCH_SCORE_DECIMALS)
 		})),
-		cautions: analysis.cautions
+		cautions: analysis.cautions,
+		advice: analysis.advice
 	};
 }

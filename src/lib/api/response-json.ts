@@ -16,7 +16,7 @@ type Item = Record<string, unknown>;
 /** Fields that change from one request to the next, per list of the response. */
 const VARYING_FIELDS = {
 	causes: ['probability', 'band', 'evidence'],
-	nextQuestions: ['expectedGain'],
+	nextQuestions: ['expectedGain', 'lowValue'],
 	tests: ['targets', 'priority', 'score']
 } as const;
 

@@ -154,9 +154,26 @@ export const nextQuestionSchema = z
 		bins: z
 			.array(z.object({ value: z.number(), label: z.string(), frequency: z.number() }))
 			.optional()
-			.meta({ description: 'Typical answers of a number observation.' })
+			.meta({ description: 'Typical answers of a number observation.' }),
+		lowValue: z.boolean().optional().meta({
+			description:
+				'True when asking is not worth its time: under 0.05 bits, or less information per minute than the best test.'
+		})
 	})
 	.meta({ id: 'NextQuestion' });
+
+export const adviceSchema = z
+	.object({
+		stop: z.boolean().meta({
+			description: 'True when no question left is worth asking: do bestTest next.'
+		}),
+		reason: z.string(),
+		bestTest: z
+			.string()
+			.nullable()
+			.meta({ description: 'Key of the first test of the plan, or null when none is left.' })
+	})
+	.meta({ id: 'Advice' });
 
 export const plannedTestSchema = z
 	.object({
@@ -170,7 +187,8 @@ export const plannedTestSchema = z
 		steps: z.array(z.string()).optional(),
 		sets: z.string().optional().meta({ description: 'Observation the test’s result answers.' }),
 		score: z.number().optional().meta({
-			description: 'Probability of the targets per minute of testing; tests are ordered by it.'
+			description:
+				'Expected information of the result in bits per minute of testing; tests are ordered by it.'
 		})
 	})
 	.meta({ id: 'PlannedTest' });
@@ -203,6 +221,9 @@ export const diagnoseResponseSchema = z
 		}),
 		matched: z.array(complaintMatchSchema),
 		cautions: z.array(z.string()),
+		advice: adviceSchema.optional().meta({
+			description: 'Whether questions are still worth asking, or the best test is next.'
+		}),
 		caseId: z
 			.string()
 			.nullable()

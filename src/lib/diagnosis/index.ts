@@ -2,13 +2,15 @@
 import { buildComplaintMatcher, type ComplaintMatch } from './complaint';
 import { buildEngineEvaluator } from './engine';
 import { compileRulebook, listFiredRuleKeys, toFactVector, type FactVector } from './evaluate';
+import { adviseNextStep, findObservationMinutes, type Advice } from './advice';
 import {
-	planNextQuestions,
+	computeQuestionGains,
+	describeNextQuestions,
 	prepareLookAhead,
 	type FrequencyOverrides,
 	type NextQuestion
 } from './next-question';
-import { logistic, rankCauses, sumLogOdds, type RankedCause } from './rank';
+import { rankCauses, sumLogOdds, type RankedCause } from './rank';
 import {
 	describeInvalidValue,
 	formatIssuePath,
@@ -26,6 +28,7 @@ export type { Evidence, RankedCause } from './rank';
 export type { FrequencyOverrides, NextQuestion, AnswerOption } from './next-question';
 export type { PlannedTest } from './test-plan';
 export { replay, type ReplayCase, type ReplayResult } from './replay';
+export type { Advice } from './advice';
 
 export interface DiagnoseInput {
 	/** `null` means not known, the same as leaving the key out. */
@@ -62,6 +65,8 @@ export interface Analysis extends Ranking {
 	nextQuestions: NextQuestion[];
 	tests: PlannedTest[];
 	cautions: string[];
+	/** Whether questions are still worth asking, or the best test is next. */
+	advice: Advice;
 }
 
 export interface Diagnoser {
@@ -107,6 +112,7 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 	prepareLookAhead(compiled);
 	const matcher = buildComplaintMatcher(book);
 	const testTargets = findTestTargets(compiled);
+	const observationMinutes = findObservationMinutes(compiled);
 	const causesByKey = new Map(book.causes.map((cause) => [cause.key, cause]));
 
 	/** The answers (explicit, then matched from the complaint) and the rules they fire. */
@@ -147,21 +153,27 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 
 	async function analyse(input: DiagnoseInput, runOptions: AnalyseOptions = {}): Promise<Analysis> {
 		const { unknown, matched, facts, fired, logOdds, causes } = await decide(input);
-		const nextQuestions = planNextQuestions(
+		const gains = computeQuestionGains(
 			compiled,
 			{ facts, fired, logOdds },
 			unknown,
-			runOptions.frequencies ?? options.frequencies,
-			runOptions.questionLimit
+			runOptions.frequencies ?? options.frequencies
 		);
 		const causeOrder = causes.map((cause) => compiled.causeIndexByKey.get(cause.key) as number);
 		const tests = planTests(
 			compiled,
 			testTargets,
-			logOdds.map(logistic),
+			gains,
 			causeOrder,
 			(key) =>
 				facts[compiled.observationIndexByKey.get(key) ?? -1] !== undefined || unknown.has(key)
+		);
+		const { advice, lowValue } = adviseNextStep(compiled, gains, observationMinutes, tests);
+		const nextQuestions = describeNextQuestions(
+			compiled,
+			gains,
+			runOptions.questionLimit,
+			lowValue
 		);
 		const cautions = listUnique([
 			...book.meta.cautions,
@@ -176,6 +188,7 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 			tests,
 			matched,
 			cautions,
+			advice,
 			facts: describeFacts(facts),
 			firedRules: listFiredRuleKeys(compiled, fired)
 		};

@@ -34,6 +34,8 @@ export interface NextQuestion {
 	min?: number;
 	max?: number;
 	bins?: Bin[];
+	/** Set by `diagnose`: true when asking it is not worth its time (see `advice.ts`). */
+	lowValue?: boolean;
 }
 
 export function binaryEntropyBits(probability: number): number {
@@ -164,9 +166,6 @@ export function prepareLookAhead(compiled: CompiledRulebook): ObservationLookAhe
 /**
  * Expected entropy reduction of every observation that is neither answered nor excluded, most
  * informative first; only the best `limit` are described and returned (all by default).
- * Only the rules that mention the observation can change (their effects on one-observation
- * rules are looked up, the others re-evaluated with compiled predicates), and only their causes'
- * log-odds move, so no engine run happens per hypothetical answer.
  */
 export function planNextQuestions(
 	compiled: CompiledRulebook,
@@ -175,6 +174,25 @@ export function planNextQuestions(
 	overrides?: FrequencyOverrides,
 	limit = Infinity
 ): NextQuestion[] {
+	return describeNextQuestions(
+		compiled,
+		computeQuestionGains(compiled, state, excluded, overrides),
+		limit
+	);
+}
+
+/**
+ * Expected entropy reduction, in bits, per observation (rulebook order); NaN for one that is
+ * answered or excluded. Only the rules that mention the observation can change (their effects on
+ * one-observation rules are looked up, the others re-evaluated with compiled predicates), and
+ * only their causes' log-odds move, so no engine run happens per hypothetical answer.
+ */
+export function computeQuestionGains(
+	compiled: CompiledRulebook,
+	state: LookAheadState,
+	excluded: ReadonlySet<string>,
+	overrides?: FrequencyOverrides
+): Float64Array {
 	const { facts, fired, logOdds } = state;
 	const lookAhead = prepareLookAhead(compiled);
 	const observations = compiled.rulebook.observations;
@@ -191,9 +209,7 @@ export function planNextQuestions(
 	let touchedCount = 0;
 	const live: CompiledRule[] = [];
 	let liveCount: number;
-	const asked: number[] = [];
-	const gains = new Float64Array(observations.length);
-	const shownGains = new Float64Array(observations.length);
+	const gains = new Float64Array(observations.length).fill(Number.NaN);
 
 	for (let observationIndex = 0; observationIndex < observations.length; observationIndex++) {
 		const observation = observations[observationIndex];
@@ -253,7 +269,24 @@ export function planNextQuestions(
 			expectedGain += options[optionIndex].probability * reduction;
 		}
 		gains[observationIndex] = expectedGain;
-		shownGains[observationIndex] = roundGainBits(expectedGain);
+	}
+	return gains;
+}
+
+/** The questions of `computeQuestionGains`, most informative first, the best `limit` described;
+ * `lowValue` (observation indices) marks those not worth their time. */
+export function describeNextQuestions(
+	compiled: CompiledRulebook,
+	gains: Float64Array,
+	limit = Infinity,
+	lowValue?: ReadonlySet<number>
+): NextQuestion[] {
+	const observations = compiled.rulebook.observations;
+	const asked: number[] = [];
+	const shownGains = new Float64Array(observations.length);
+	for (let observationIndex = 0; observationIndex < observations.length; observationIndex++) {
+		if (Number.isNaN(gains[observationIndex])) continue;
+		shownGains[observationIndex] = roundGainBits(gains[observationIndex]);
 		asked.push(observationIndex);
 	}
 	// Order by what the caller will see (4 decimals), so equal shown gains list by key.
@@ -268,6 +301,7 @@ export function planNextQuestions(
 	for (let rank = 0; rank < count; rank++) {
 		const observationIndex = asked[rank];
 		questions[rank] = describeQuestion(observations[observationIndex], gains[observationIndex]);
+		if (lowValue) questions[rank].lowValue = lowValue.has(observationIndex);
 	}
 	return questions;
 }

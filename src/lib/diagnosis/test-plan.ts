@@ -13,7 +13,8 @@ export interface PlannedTest {
 	equipment: string[];
 	steps: string[];
 	sets: string;
-	/** Probability mass of the targets per minute; full precision until a response is built. */
+	/** Expected information of the result, in bits per minute of testing (the look-ahead's
+	 * expected entropy reduction ÷ minutes); full precision until a response is built. */
 	score: number;
 }
 
@@ -46,15 +47,23 @@ export function findTestTargets(compiled: CompiledRulebook): Map<string, Uint8Ar
 }
 
 /**
- * Orders the confirming tests still worth doing by (probability mass of their targets) / minutes,
- * highest first: the p/c rule of decision-theoretic troubleshooting. A test whose observation is
- * answered or marked unknown is left out. `causeOrder` is the ranking (cause indices, most
- * probable first), which also orders each test's targets.
+ * Orders the confirming tests not yet done by expected information per minute, highest first:
+ * the look-ahead's expected reduction of the causes' summed entropy if the result were known
+ * (`gains`, bits, per observation in rulebook order), divided by the test's minutes.
+ *
+ * Why not the p/c rule (probability of the causes a test can find ÷ its cost; Kadane and Simon
+ * 1977, Heckerman, Breese and Rommelse 1995)? It is optimal when each test finds one fault for
+ * sure and faults are exclusive. Here a result is imperfect (a cap can fail its test on a car
+ * whose fault is elsewhere), one test moves several causes, and a clearing result is worth as
+ * much as a confirming one, which the p/c rule does not count. Information per minute values all
+ * of that from the same weights, and puts tests and questions on one scale, so "ask, or test?"
+ * compares like with like (see `advice.ts`). A test whose observation is answered or marked
+ * unknown is left out. `causeOrder` (cause indices, most probable first) orders each test's targets.
  */
 export function planTests(
 	compiled: CompiledRulebook,
 	testTargets: ReadonlyMap<string, Uint8Array>,
-	probabilities: Float64Array,
+	gains: Float64Array,
 	causeOrder: readonly number[],
 	isSettled: (observationKey: string) => boolean
 ): PlannedTest[] {
@@ -62,13 +71,10 @@ export function planTests(
 	for (const test of compiled.rulebook.tests) {
 		if (isSettled(test.sets)) continue;
 		const isTarget = testTargets.get(test.key);
-		const targets: string[] = [];
-		let mass = 0;
-		for (const causeIndex of causeOrder) {
-			if (isTarget?.[causeIndex] !== 1) continue;
-			targets.push(compiled.causes[causeIndex].key);
-			mass += probabilities[causeIndex];
-		}
+		const targets = causeOrder
+			.filter((causeIndex) => isTarget?.[causeIndex] === 1)
+			.map((causeIndex) => compiled.causes[causeIndex].key);
+		const gain = gains[compiled.observationIndexByKey.get(test.sets) ?? -1];
 		planned.push({
 			key: test.key,
 			name: test.name,
@@ -78,7 +84,7 @@ export function planTests(
 			equipment: test.equipment,
 			steps: test.steps,
 			sets: test.sets,
-			score: mass / test.minutes,
+			score: Number.isFinite(gain) ? gain / test.minutes : 0,
 			priority: 0
 		});
 	}
