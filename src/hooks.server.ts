@@ -5,7 +5,7 @@ import { getConfig } from '$lib/server/config';
 import { prepare } from '$lib/server/db';
 import { seedOnStart } from '$lib/server/seed';
 import { startHousekeeping, sweepExpired } from '$lib/server/housekeeping';
-import { apiRateCounter } from '$lib/server/auth/rate-limit';
+import { apiRateCounter } from '$lib/server/auth/api-rate-limit';
 
 export const init: ServerInit = async () => {
 	getConfig(); // fail fast on a bad setting

@@ -7,7 +7,7 @@ import { getConfig } from '../config';
 import { baseEditionInsert } from '../editions';
 import { generateId } from './crypto';
 import { checkPasswordStrength, getDummyHash, hashPassword, verifyPassword } from './password';
-import { clearLoginFailures, loginKeys, loginLockedForS, recordLoginFailure } from './rate-limit';
+import { countSignInAttempt, recordSignInSuccess, signInKeys } from './signin-throttle';
 import { invalidateUserSessions } from './session';
 import { assignableRoles } from './roles';
 
@@ -77,6 +77,7 @@ export type SignInResult =
 /**
  * One generic answer for a wrong e-mail, a wrong password or a deactivated account, and the same
  * argon2 cost in each case, so the form tells an attacker nothing about which accounts exist.
+ * The attempt is counted before the hash, so a burst of parallel attempts cannot pass the lock.
  */
 export async function signIn(
 	emailInput: string,
@@ -84,19 +85,17 @@ export async function signIn(
 	ip: string
 ): Promise<SignInResult> {
 	const email = normaliseEmail(emailInput);
-	const keys = loginKeys(email, ip);
-	const lockedS = await loginLockedForS(keys);
-	if (lockedS > 0) return { ok: false, reason: 'locked', retryAfterS: lockedS };
+	const keys = signInKeys(email, ip);
+	const maxAttempts = getConfig().LOGIN_MAX_ATTEMPTS;
+	const attempt = await countSignInAttempt(keys, maxAttempts);
+	if (!attempt.allowed) return { ok: false, reason: 'locked', retryAfterS: attempt.retryAfterS };
 
 	const user = await findUserByEmail(email);
 	const valid = user
 		? await verifyPassword(user.passwordHash, password)
 		: (await verifyPassword(await getDummyHash(), password), false);
-	if (!user || !valid || !user.active) {
-		await recordLoginFailure(keys, getConfig().LOGIN_MAX_ATTEMPTS);
-		return { ok: false, reason: 'invalid' };
-	}
-	await clearLoginFailures(email);
+	if (!user || !valid || !user.active) return { ok: false, reason: 'invalid' };
+	await recordSignInSuccess(keys, maxAttempts);
 	return { ok: true, user };
 }
 
@@ -188,10 +187,4 @@ export async function setUserActive(actor: Actor, userId: string, active: boolea
 		})
 	]);
 	if (!active) await invalidateUserSessions(target.id);
-}
-
-export async function getShop(shopId: string) {
-	const [shop] = await db.select().from(shops).where(eq(shops.id, shopId));
-	if (!shop) throw new AppError('not_found', 'No such shop.');
-	return shop;
 }

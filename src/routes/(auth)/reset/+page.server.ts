@@ -1,7 +1,7 @@
 import { fail } from '@sveltejs/kit';
 import { z } from 'zod';
 import { requestPasswordReset } from '$lib/server/auth/password-reset';
-import { hitRateLimit } from '$lib/server/auth/rate-limit';
+import { hitRateLimit } from '$lib/server/auth/form-rate-limit';
 import { emailField, failForm, parseForm } from '$lib/server/forms';
 import { clientIp } from '$lib/server/http';
 import { getConfig } from '$lib/server/config';

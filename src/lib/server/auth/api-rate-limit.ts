@@ -1,4 +1,7 @@
+/** The API's per-minute limits per key and per address, shared by servers without a write per request. */
 import { sql } from 'drizzle-orm';
+import { getConfig } from '../config';
+import { db as appDb } from '../db';
 import type { Database } from '../db/client';
 import { rateLimits } from '../db/schema';
 
@@ -33,8 +36,8 @@ type Entry = {
  * database's counters in one statement and reads back the totals, which include the other
  * servers' hits. One server alone is therefore exact; several together see each other's traffic
  * at most `syncMs` late, so a key can exceed its limit by what the other servers admit in that
- * time. Sign-in and sign-up limits do not use this: they write on every attempt
- * (`hitRateLimits`), because there a few extra tries matter.
+ * time. Sign-in, sign-up, reset and invite limits do not use this: they write on every attempt
+ * (`signin-throttle.ts`, `form-rate-limit.ts`), because there a few extra tries matter.
  */
 export function createRateCounter(
 	db: Database,
@@ -150,4 +153,16 @@ export function createRateCounter(
 			await flush();
 		}
 	};
+}
+
+let apiCounter: RateCounter | undefined;
+
+/** The API's per-minute counters per address and per key: see `createRateCounter`. */
+export function apiRateCounter(): RateCounter {
+	apiCounter ??= createRateCounter(appDb, {
+		windowS: 60,
+		syncMs: getConfig().RATE_LIMIT_SYNC_MS,
+		onError: (error) => console.error('writing API rate counters failed', error)
+	});
+	return apiCounter;
 }
