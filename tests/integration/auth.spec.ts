@@ -103,6 +103,26 @@ describe('signing in and out', () => {
 		expect(ok.type).toBe('redirect');
 	});
 
+	it('sends a person only to a path of this site after signing in, whatever `next` holds', async () => {
+		const { email, password } = await createShop();
+		const cases: [string, string][] = [
+			['/\t/evil.example', '/'], // the page decodes ?next=/%09/evil.example to this
+			['/\n/evil.example', '/'],
+			['//evil.example/x', '/'],
+			['/\\evil.example', '/'],
+			['/.//evil.example', '/'],
+			['https://evil.example/', '/'],
+			['/x\r\nSet-Cookie: a=b', '/'],
+			['/calculators?unit=°C', '/calculators?unit=%C2%B0C'],
+			['/settings/users', '/settings/users']
+		];
+		for (const [next, expected] of cases) {
+			const res = await newClient().action('/signin', { email, password, next });
+			expect(res.type, JSON.stringify(next)).toBe('redirect');
+			expect(res.location, JSON.stringify(next)).toBe(expected);
+		}
+	});
+
 	it('sets an httpOnly, SameSite session cookie whose token is not stored in the database', async () => {
 		const { email, password } = await createShop();
 		const res = await fetch(`${newClient().baseUrl}/signin`, {
