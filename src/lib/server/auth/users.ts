@@ -1,6 +1,7 @@
-import { and, asc, eq } from 'drizzle-orm';
+/** People and their shops' accounts: sign-up, sign-in, roles and deactivation. */
+import { and, asc, eq, gt, isNull } from 'drizzle-orm';
 import { db } from '../db';
-import { shops, users, type Role, type User } from '../db/schema';
+import { invites, shops, users, type Role, type User } from '../db/schema';
 import { auditInsert } from '../audit';
 import { AppError } from '../errors';
 import { getConfig } from '../config';
@@ -21,6 +22,9 @@ export async function findUserByEmail(email: string): Promise<User | undefined> 
 	return user;
 }
 
+export const SIGNUP_REFUSED =
+	'A new shop cannot be opened with these details. If you already use Causeway, sign in or reset your password.';
+
 /** Creates a shop and its first user, an admin. */
 export async function createShop(input: {
 	shopName: string;
@@ -33,9 +37,8 @@ export async function createShop(input: {
 	const weak = checkPasswordStrength(input.password, email);
 	if (weak) throw new AppError('invalid_request', weak, { field: 'password' });
 	if (await findUserByEmail(email)) {
-		throw new AppError('conflict', 'That e-mail address already has an account.', {
-			field: 'email'
-		});
+		// Worded so that it does not confirm that the address has an account.
+		throw new AppError('conflict', SIGNUP_REFUSED);
 	}
 	const shopId = generateId();
 	const userId = generateId();
@@ -172,19 +175,31 @@ export async function setUserActive(actor: Actor, userId: string, active: boolea
 	}
 	if (target.active === active) return;
 	if (!active) await assertNotLastAdmin(actor.shopId, target);
-	await db.batch([
-		db
-			.update(users)
-			.set({ active, deactivatedAt: active ? null : new Date() })
-			.where(eq(users.id, target.id)),
-		auditInsert({
-			shopId: actor.shopId,
-			actorUserId: actor.id,
-			action: active ? 'user.reactivated' : 'user.deactivated',
-			target: target.id,
-			detail: { email: target.email },
-			ip
-		})
-	]);
+	const now = new Date();
+	const change = db
+		.update(users)
+		.set({ active, deactivatedAt: active ? null : now })
+		.where(eq(users.id, target.id));
+	const audit = auditInsert({
+		shopId: actor.shopId,
+		actorUserId: actor.id,
+		action: active ? 'user.reactivated' : 'user.deactivated',
+		target: target.id,
+		detail: { email: target.email },
+		ip
+	});
+	// A deactivated person's pending invitations end with them (and stay ended).
+	const endInvites = db
+		.update(invites)
+		.set({ expiresAt: now })
+		.where(
+			and(
+				eq(invites.invitedBy, target.id),
+				eq(invites.shopId, actor.shopId),
+				isNull(invites.usedAt),
+				gt(invites.expiresAt, now)
+			)
+		);
+	await (active ? db.batch([change, audit]) : db.batch([change, endInvites, audit]));
 	if (!active) await invalidateUserSessions(target.id);
 }
