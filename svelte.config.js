@@ -9,7 +9,24 @@ const config = {
 		runes: ({ filename }) => (filename.split(/[/\\]/).includes('node_modules') ? undefined : true)
 	},
 	kit: {
-		adapter: adapter({ out: 'build', precompress: false })
+		adapter: adapter({ out: 'build', precompress: false }),
+		// SvelteKit adds a nonce (rendered pages) or a hash (prerendered) to its own inline script.
+		// Style attributes stay allowed: components set widths inline (the rank bars).
+		csp: {
+			mode: 'auto',
+			directives: {
+				'default-src': ['self'],
+				'script-src': ['self'],
+				'style-src': ['self'],
+				'style-src-attr': ['unsafe-inline'],
+				'img-src': ['self', 'data:'],
+				'font-src': ['self'],
+				'connect-src': ['self'],
+				'form-action': ['self'],
+				'base-uri': ['self'],
+				'object-src': ['none']
+			}
+		}
 	}
 };
 

@@ -6,6 +6,7 @@ import { prepare } from '$lib/server/db';
 import { seedOnStart } from '$lib/server/seed';
 import { startHousekeeping, sweepExpired } from '$lib/server/housekeeping';
 import { apiRateCounter } from '$lib/server/auth/api-rate-limit';
+import { privateAndTransportHeaders } from '$lib/server/security-headers';
 
 export const init: ServerInit = async () => {
 	getConfig(); // fail fast on a bad setting
@@ -73,7 +74,13 @@ const cors: Handle = async ({ event, resolve }) => {
 	return response;
 };
 
-export const handle = sequence(requestId, securityHeaders, cors, authenticate);
+export const handle = sequence(
+	requestId,
+	securityHeaders,
+	privateAndTransportHeaders,
+	cors,
+	authenticate
+);
 
 /** The unexpected: logged with the request id, shown to the person as a plain message with the id. */
 export const handleError: HandleServerError = ({ error, event, status, message }) => {
