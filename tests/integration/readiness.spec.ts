@@ -19,9 +19,9 @@ function makeReadOnly(dir: string): () => void {
 }
 
 /** Runs `node build` until it exits (at most 30 s) and returns its code and output. */
-function runUntilExit(env: Record<string, string>) {
-	return new Promise<{ code: number | null; output: string }>(async (done) => {
-		const port = await freePort();
+async function runUntilExit(env: Record<string, string>) {
+	const port = await freePort();
+	return new Promise<{ code: number | null; output: string }>((done) => {
 		const child = spawn(process.execPath, ['build'], {
 			env: { ...process.env, NODE_ENV: 'test', PORT: String(port), HOST: '127.0.0.1', ...env },
 			stdio: ['ignore', 'pipe', 'pipe']
