@@ -17,7 +17,7 @@ async function sharedDatabase() {
 
 // 10:00:05 on some day: five seconds into a one-minute window.
 const T = Date.UTC(2026, 11, 2, 10, 0, 5);
-const options = { windowS: 60, syncMs: 60_000 };
+const options = { windowS: 60, syncMs: 60_000, now: () => T };
 
 describe('API rate counters shared through the database', () => {
 	it('is exact within one server without waiting for the database', async () => {

@@ -41,9 +41,16 @@ type Entry = {
  */
 export function createRateCounter(
 	db: Database,
-	options: { windowS: number; syncMs: number; onError?: (error: unknown) => void }
+	options: {
+		windowS: number;
+		syncMs: number;
+		onError?: (error: unknown) => void;
+		/** The clock, in ms; tests give a fixed one. */
+		now?: () => number;
+	}
 ): RateCounter {
 	const windowMs = options.windowS * 1000;
+	const clock = options.now ?? Date.now;
 	const entries = new Map<string, Entry>();
 	let timer: ReturnType<typeof setTimeout> | undefined;
 	let flushing: Promise<void> | undefined;
@@ -60,7 +67,7 @@ export function createRateCounter(
 		timer.unref?.();
 	}
 
-	function hit(buckets: readonly Bucket[], nowMs = Date.now()): RateDecision {
+	function hit(buckets: readonly Bucket[], nowMs = clock()): RateDecision {
 		const windowStart = currentWindow(nowMs);
 		let retryAfterS = 0;
 		let count = 0;
@@ -136,7 +143,7 @@ export function createRateCounter(
 		}
 	}
 
-	async function flush(nowMs = Date.now()) {
+	async function flush(nowMs = clock()) {
 		// One write at a time, so hits are never added twice.
 		while (flushing) await flushing;
 		flushing = write(nowMs).finally(() => (flushing = undefined));

@@ -1,24 +1,24 @@
 /** Whether the database takes a write, and one clear line at start-up when it does not. */
-import { sql } from 'drizzle-orm';
+import { eq } from 'drizzle-orm';
 import type { Database } from './client';
 import { rateLimits } from './schema';
 
-/** The one row the readiness probe rewrites (housekeeping keeps it: it is always fresh). */
+/** The row the readiness probe writes and removes again in the same commit. */
 export const READY_PROBE_KEY = 'ready:probe';
 
 /**
  * A tiny real write, committed: a full disk, a read-only file or folder, or a lost lock all
- * fail it, where a read still succeeds.
+ * fail it, where a read still succeeds. The row is inserted and deleted in one transaction, so
+ * the pages are written and nothing is left behind.
  */
 export async function probeDatabaseWrite(database: Database): Promise<void> {
-	const now = Math.floor(Date.now() / 1000);
-	await database
-		.insert(rateLimits)
-		.values({ key: READY_PROBE_KEY, count: 1, windowStart: now })
-		.onConflictDoUpdate({
-			target: rateLimits.key,
-			set: { count: sql`(${rateLimits.count} % 1000000) + 1`, windowStart: now }
-		});
+	await database.batch([
+		database
+			.insert(rateLimits)
+			.values({ key: READY_PROBE_KEY, count: 1, windowStart: Math.floor(Date.now() / 1000) })
+			.onConflictDoNothing(),
+		database.delete(rateLimits).where(eq(rateLimits.key, READY_PROBE_KEY))
+	]);
 }
 
 /** The URL without its query (a libSQL URL may carry a token there). */
