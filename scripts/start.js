@@ -43,4 +43,5 @@ const env = {
 const server = spawn(process.execPath, ['build'], { stdio: 'inherit', env });
 for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => server.kill(signal));
 server.on('exit', (code) => process.exit(code ?? 0));
-console.log(`Causeway: serving on ${env.ORIGIN}`);
+// The server itself says "Listening on …", or one line on why it cannot start (exit code kept).
+console.log(`Causeway: starting for ${env.ORIGIN}…`);

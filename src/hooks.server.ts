@@ -5,8 +5,9 @@ import { getConfig } from '$lib/server/config';
 import { prepare } from '$lib/server/db';
 import { seedOnStart } from '$lib/server/seed';
 import { startHousekeeping, sweepExpired } from '$lib/server/housekeeping';
-import { apiRateCounter } from '$lib/server/auth/rate-limit';
+import { apiRateCounter } from '$lib/server/auth/api-rate-limit';
 import { checkRequestOrigin } from '$lib/server/request-origin';
+import { privateAndTransportHeaders } from '$lib/server/security-headers';
 
 export const init: ServerInit = async () => {
 	getConfig(); // fail fast on a bad setting
@@ -74,7 +75,14 @@ const cors: Handle = async ({ event, resolve }) => {
 	return response;
 };
 
-export const handle = sequence(requestId, securityHeaders, cors, checkRequestOrigin, authenticate);
+export const handle = sequence(
+	requestId,
+	securityHeaders,
+	privateAndTransportHeaders,
+	cors,
+	checkRequestOrigin,
+	authenticate
+);
 
 /** The unexpected: logged with the request id, shown to the person as a plain message with the id. */
 export const handleError: HandleServerError = ({ error, event, status, message }) => {

@@ -1,4 +1,4 @@
-import { mkdirSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { SMTPServer } from 'smtp-server';
 
@@ -39,6 +39,8 @@ function decodeQuotedPrintable(text: string): string {
 }
 
 export function readMail(dir: string, to: string): string[] {
+	// Mail goes out after the answer: the folder may not exist yet.
+	if (!existsSync(dir)) return [];
 	return readdirSync(dir)
 		.filter((f) => f.endsWith(`-${to.toLowerCase()}.eml`))
 		.sort()

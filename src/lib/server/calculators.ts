@@ -10,9 +10,9 @@ import {
 	type CalculatorResult,
 	type IntervalSettings
 } from '$lib/calculators';
-import { getShop } from './auth/users';
+import { getShop } from './shops';
 import { AppError } from './errors';
-import { coolantIntervals } from './shop-settings';
+import { coolantIntervals } from './shops';
 
 /** What a client needs to call a calculator: its name, what it does and the JSON it takes. */
 export type CalculatorSummary = {

@@ -1,7 +1,7 @@
 import { error, redirect, type RequestEvent } from '@sveltejs/kit';
 import { authenticateApiKey } from './auth/api-keys';
 import type { PublishedEditionRow } from './editions';
-import { apiRateCounter } from './auth/rate-limit';
+import { apiRateCounter } from './auth/api-rate-limit';
 import { can, type Permission } from './auth/roles';
 import type { SessionUser } from './auth/session';
 import { getConfig } from './config';

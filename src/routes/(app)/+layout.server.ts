@@ -1,5 +1,5 @@
 import { can, ROLE_LABELS } from '$lib/server/auth/roles';
-import { getShop } from '$lib/server/auth/users';
+import { getShop } from '$lib/server/shops';
 import { requireUser } from '$lib/server/guard';
 import { NAV } from '$lib/nav';
 import type { LayoutServerLoad } from './$types';

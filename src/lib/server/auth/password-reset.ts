@@ -1,3 +1,4 @@
+/** Password reset: one-time links by e-mail, and setting the new password. */
 import { and, eq, isNull } from 'drizzle-orm';
 import { db } from '../db';
 import { passwordResets, users } from '../db/schema';
@@ -16,7 +17,7 @@ export const RESET_TTL_MINUTES = 60;
  * Sends a reset link when the address belongs to an active account. The caller always shows the
  * same confirmation, so the form does not reveal which addresses have accounts.
  */
-export async function requestPasswordReset(email: string, baseUrl: string, ip?: string) {
+async function requestPasswordReset(email: string, baseUrl: string, ip?: string) {
 	const user = await findUserByEmail(email);
 	if (!user || !user.active) return;
 	const token = randomToken(20);
@@ -44,6 +45,17 @@ export async function requestPasswordReset(email: string, baseUrl: string, ip?: 
 	);
 }
 
+/**
+ * Starts the request and returns at once: the look-up, the write and the mail happen after the
+ * answer, so a real account and an unknown address answer alike and in the same time.
+ * Failures are logged, never shown (the answer has gone).
+ */
+export function startPasswordReset(email: string, baseUrl: string, ip?: string): void {
+	requestPasswordReset(email, baseUrl, ip).catch((error: unknown) =>
+		console.error('password reset request failed', error)
+	);
+}
+
 export async function findUsableReset(token: string) {
 	const [row] = await db
 		.select({ reset: passwordResets, email: users.email, active: users.active })
@@ -56,7 +68,10 @@ export async function findUsableReset(token: string) {
 	return row;
 }
 
-/** Sets the new password and ends every session of the account. */
+/**
+ * Sets the new password and ends every session of the account. Every other open link of the
+ * account is cancelled in the same batch: an older link must not undo the new password.
+ */
 export async function resetPassword(token: string, password: string, ip?: string) {
 	const row = await findUsableReset(token);
 	if (!row) throw new AppError('not_found', 'This reset link has expired or was already used.');
@@ -72,6 +87,10 @@ export async function resetPassword(token: string, password: string, ip?: string
 	const [user] = await db.select().from(users).where(eq(users.id, claimed.userId));
 	await db.batch([
 		db.update(users).set({ passwordHash }).where(eq(users.id, user.id)),
+		db
+			.update(passwordResets)
+			.set({ usedAt: new Date() })
+			.where(and(eq(passwordResets.userId, user.id), isNull(passwordResets.usedAt))),
 		auditInsert({
 			shopId: user.shopId,
 			actorUserId: user.id,

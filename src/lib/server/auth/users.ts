@@ -1,13 +1,14 @@
-import { and, asc, eq } from 'drizzle-orm';
+/** People and their shops' accounts: sign-up, sign-in, roles and deactivation. */
+import { and, asc, eq, gt, isNull } from 'drizzle-orm';
 import { db } from '../db';
-import { shops, users, type Role, type User } from '../db/schema';
+import { invites, shops, users, type Role, type User } from '../db/schema';
 import { auditInsert } from '../audit';
 import { AppError } from '../errors';
 import { getConfig } from '../config';
 import { baseEditionInsert } from '../editions';
 import { generateId } from './crypto';
 import { checkPasswordStrength, getDummyHash, hashPassword, verifyPassword } from './password';
-import { clearLoginFailures, loginKeys, loginLockedForS, recordLoginFailure } from './rate-limit';
+import { countSignInAttempt, recordSignInSuccess, signInKeys } from './signin-throttle';
 import { invalidateUserSessions } from './session';
 import { assignableRoles } from './roles';
 
@@ -21,6 +22,9 @@ export async function findUserByEmail(email: string): Promise<User | undefined> 
 	return user;
 }
 
+export const SIGNUP_REFUSED =
+	'A new shop cannot be opened with these details. If you already use Causeway, sign in or reset your password.';
+
 /** Creates a shop and its first user, an admin. */
 export async function createShop(input: {
 	shopName: string;
@@ -33,9 +37,8 @@ export async function createShop(input: {
 	const weak = checkPasswordStrength(input.password, email);
 	if (weak) throw new AppError('invalid_request', weak, { field: 'password' });
 	if (await findUserByEmail(email)) {
-		throw new AppError('conflict', 'That e-mail address already has an account.', {
-			field: 'email'
-		});
+		// Worded so that it does not confirm that the address has an account.
+		throw new AppError('conflict', SIGNUP_REFUSED);
 	}
 	const shopId = generateId();
 	const userId = generateId();
@@ -77,6 +80,7 @@ export type SignInResult =
 /**
  * One generic answer for a wrong e-mail, a wrong password or a deactivated account, and the same
  * argon2 cost in each case, so the form tells an attacker nothing about which accounts exist.
+ * The attempt is counted before the hash, so a burst of parallel attempts cannot pass the lock.
  */
 export async function signIn(
 	emailInput: string,
@@ -84,19 +88,17 @@ export async function signIn(
 	ip: string
 ): Promise<SignInResult> {
 	const email = normaliseEmail(emailInput);
-	const keys = loginKeys(email, ip);
-	const lockedS = await loginLockedForS(keys);
-	if (lockedS > 0) return { ok: false, reason: 'locked', retryAfterS: lockedS };
+	const keys = signInKeys(email, ip);
+	const maxAttempts = getConfig().LOGIN_MAX_ATTEMPTS;
+	const attempt = await countSignInAttempt(keys, maxAttempts);
+	if (!attempt.allowed) return { ok: false, reason: 'locked', retryAfterS: attempt.retryAfterS };
 
 	const user = await findUserByEmail(email);
 	const valid = user
 		? await verifyPassword(user.passwordHash, password)
 		: (await verifyPassword(await getDummyHash(), password), false);
-	if (!user || !valid || !user.active) {
-		await recordLoginFailure(keys, getConfig().LOGIN_MAX_ATTEMPTS);
-		return { ok: false, reason: 'invalid' };
-	}
-	await clearLoginFailures(email);
+	if (!user || !valid || !user.active) return { ok: false, reason: 'invalid' };
+	await recordSignInSuccess(keys, maxAttempts);
 	return { ok: true, user };
 }
 
@@ -173,25 +175,31 @@ export async function setUserActive(actor: Actor, userId: string, active: boolea
 	}
 	if (target.active === active) return;
 	if (!active) await assertNotLastAdmin(actor.shopId, target);
-	await db.batch([
-		db
-			.update(users)
-			.set({ active, deactivatedAt: active ? null : new Date() })
-			.where(eq(users.id, target.id)),
-		auditInsert({
-			shopId: actor.shopId,
-			actorUserId: actor.id,
-			action: active ? 'user.reactivated' : 'user.deactivated',
-			target: target.id,
-			detail: { email: target.email },
-			ip
-		})
-	]);
+	const now = new Date();
+	const change = db
+		.update(users)
+		.set({ active, deactivatedAt: active ? null : now })
+		.where(eq(users.id, target.id));
+	const audit = auditInsert({
+		shopId: actor.shopId,
+		actorUserId: actor.id,
+		action: active ? 'user.reactivated' : 'user.deactivated',
+		target: target.id,
+		detail: { email: target.email },
+		ip
+	});
+	// A deactivated person's pending invitations end with them (and stay ended).
+	const endInvites = db
+		.update(invites)
+		.set({ expiresAt: now })
+		.where(
+			and(
+				eq(invites.invitedBy, target.id),
+				eq(invites.shopId, actor.shopId),
+				isNull(invites.usedAt),
+				gt(invites.expiresAt, now)
+			)
+		);
+	await (active ? db.batch([change, audit]) : db.batch([change, endInvites, audit]));
 	if (!active) await invalidateUserSessions(target.id);
-}
-
-export async function getShop(shopId: string) {
-	const [shop] = await db.select().from(shops).where(eq(shops.id, shopId));
-	if (!shop) throw new AppError('not_found', 'No such shop.');
-	return shop;
 }

@@ -1,11 +1,22 @@
 import { getConfig } from '../config';
 import { createDatabase, prepareDatabase } from './client';
+import { redactQueryParameters } from './redact-errors';
+import { exitIfUnwritable, probeDatabaseWrite } from './startup';
 
 const config = getConfig();
+redactQueryParameters();
 
 /** The process-wide database. The app keeps no other state that matters. */
-export const db = createDatabase(config.DATABASE_URL, config.DATABASE_AUTH_TOKEN);
+export const db = exitIfUnwritable(
+	() => createDatabase(config.DATABASE_URL, config.DATABASE_AUTH_TOKEN),
+	config.DATABASE_URL
+);
 
-export const prepare = () => prepareDatabase(db, config.MIGRATIONS_DIR);
+/** Migrates, then proves the database takes a write, before the server answers anyone. */
+export const prepare = () =>
+	exitIfUnwritable(async () => {
+		await prepareDatabase(db, config.MIGRATIONS_DIR);
+		await probeDatabaseWrite(db);
+	}, config.DATABASE_URL);
 
 export type { Database } from './client';

@@ -1,3 +1,4 @@
+/** Outgoing mail: SMTP, or .eml files in MAIL_DIR when no SMTP server is set. */
 import { mkdir, writeFile } from 'node:fs/promises';
 import { join, resolve } from 'node:path';
 import nodemailer, { type Transporter } from 'nodemailer';
@@ -29,4 +30,15 @@ export async function sendMail(message: MailMessage): Promise<void> {
 		const safeTo = message.to.replace(/[^a-z0-9@._-]/gi, '_');
 		await writeFile(join(dir, `${stamp}-${safeTo}.eml`), info.message as Buffer);
 	}
+}
+
+/**
+ * Sends after the caller has answered: a person never waits on the mail server, and an answer
+ * takes the same time whether or not a message goes out. A failure is logged with the subject
+ * only (the text holds one-time links).
+ */
+export function sendMailInBackground(message: MailMessage): void {
+	sendMail(message).catch((error: unknown) =>
+		console.error(`sending mail "${message.subject}" failed:`, (error as Error)?.message ?? error)
+	);
 }

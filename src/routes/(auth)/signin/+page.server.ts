@@ -1,5 +1,6 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
+import { safeNextPath } from '$lib/server/auth/safe-next';
 import { signIn } from '$lib/server/auth/users';
 import { createUserSession } from '$lib/server/auth/session';
 import { emailField, failForm, parseForm, passwordField } from '$lib/server/forms';
@@ -16,10 +17,6 @@ const signInSchema = z.object({
 	password: passwordField,
 	next: z.string().optional()
 });
-
-/** Only same-site paths: never send a person on to another site after signing in. */
-const safeNext = (next: string | undefined) =>
-	next && next.startsWith('/') && !next.startsWith('//') && !next.startsWith('/\\') ? next : '/';
 
 const signInAction: Action = async (event) => {
 	const parsed = parseForm(signInSchema, await event.request.formData());
@@ -41,7 +38,7 @@ const signInAction: Action = async (event) => {
 	}
 	const { cookie } = await createUserSession(result.user.id);
 	event.cookies.set(cookie.name, cookie.value, { ...cookie.attributes, path: '/' });
-	redirect(303, safeNext(next));
+	redirect(303, safeNextPath(next, event.url.origin));
 };
 
 export const actions = { default: signInAction } satisfies Actions;

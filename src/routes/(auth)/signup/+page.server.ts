@@ -10,7 +10,7 @@ import {
 	parseForm,
 	passwordField
 } from '$lib/server/forms';
-import { hitRateLimit } from '$lib/server/auth/rate-limit';
+import { hitRateLimit } from '$lib/server/auth/form-rate-limit';
 import { clientIp } from '$lib/server/http';
 import { getConfig } from '$lib/server/config';
 import type { Action, Actions, PageServerLoad } from './$types';

@@ -1,12 +1,8 @@
-import { getShop } from '$lib/server/auth/users';
+import { getShop } from '$lib/server/shops';
 import { failForm, parseForm } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guard';
 import { clientIp } from '$lib/server/http';
-import {
-	coolantIntervals,
-	shopSettingsSchema,
-	updateShopSettings
-} from '$lib/server/shop-settings';
+import { coolantIntervals, shopSettingsSchema, updateShopSettings } from '$lib/server/shops';
 import type { Action, Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {

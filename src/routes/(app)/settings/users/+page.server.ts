@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { inviteUser, listPendingInvites } from '$lib/server/auth/invites';
+import { inviteUser, listPendingInvites, withdrawInvite } from '$lib/server/auth/invites';
 import { assignableRoles, ROLE_LABELS, ROLES } from '$lib/server/auth/roles';
 import { changeUserRole, listUsers, setUserActive } from '$lib/server/auth/users';
 import { getConfig } from '$lib/server/config';
@@ -40,6 +40,18 @@ const inviteAction: Action = async (event) => {
 	return { ok: true, notice: `Invitation sent to ${parsed.data.email}.` };
 };
 
+const withdrawAction: Action = async (event) => {
+	const user = requirePermission(event, 'users:manage');
+	const parsed = parseForm(z.object({ inviteId: userIdField }), await event.request.formData());
+	if (!parsed.ok) return failForm(parsed.errors);
+	try {
+		await withdrawInvite(user, parsed.data.inviteId, clientIp(event));
+	} catch (err) {
+		return failFromError(err);
+	}
+	return { ok: true, notice: 'Invitation withdrawn. Its link no longer works.' };
+};
+
 const changeRoleAction: Action = async (event) => {
 	const user = requirePermission(event, 'users:manage');
 	const parsed = parseForm(
@@ -72,6 +84,7 @@ const setActiveAction: Action = async (event) => {
 
 export const actions = {
 	invite: inviteAction,
+	withdrawInvite: withdrawAction,
 	changeRole: changeRoleAction,
 	setActive: setActiveAction
 } satisfies Actions;

@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { eq } from 'drizzle-orm';
 import { describe, expect, it } from 'vitest';
-import { createRateCounter } from '../../src/lib/server/auth/rate-counter';
+import { createRateCounter } from '../../src/lib/server/auth/api-rate-limit';
 import { createDatabase, prepareDatabase } from '../../src/lib/server/db/client';
 import { rateLimits } from '../../src/lib/server/db/schema';
 

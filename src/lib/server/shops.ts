@@ -1,8 +1,10 @@
+/** The shop: its record and its settings. */
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
 import { db } from './db';
 import { shops, type ShopSettings } from './db/schema';
 import { auditInsert } from './audit';
+import { AppError } from './errors';
 
 /** Coolant change intervals: common practice, no source (reference.md: long-life coolant). */
 export const DEFAULT_COOLANT_INTERVALS = {
@@ -33,6 +35,12 @@ export const shopSettingsSchema = z.object({
 		.min(1, 'At least 1 month.')
 		.max(240, 'At most 240 months.')
 });
+
+export async function getShop(shopId: string) {
+	const [shop] = await db.select().from(shops).where(eq(shops.id, shopId));
+	if (!shop) throw new AppError('not_found', 'No such shop.');
+	return shop;
+}
 
 export function coolantIntervals(settings: ShopSettings) {
 	return { ...DEFAULT_COOLANT_INTERVALS, ...settings.coolant };

@@ -1,4 +1,7 @@
+/** The API's per-minute limits per key and per address, shared by servers without a write per request. */
 import { sql } from 'drizzle-orm';
+import { getConfig } from '../config';
+import { db as appDb } from '../db';
 import type { Database } from '../db/client';
 import { rateLimits } from '../db/schema';
 
@@ -33,8 +36,8 @@ type Entry = {
  * database's counters in one statement and reads back the totals, which include the other
  * servers' hits. One server alone is therefore exact; several together see each other's traffic
  * at most `syncMs` late, so a key can exceed its limit by what the other servers admit in that
- * time. Sign-in and sign-up limits do not use this: they write on every attempt
- * (`hitRateLimits`), because there a few extra tries matter.
+ * time. Sign-in, sign-up, reset and invite limits do not use this: they write on every attempt
+ * (`signin-throttle.ts`, `form-rate-limit.ts`), because there a few extra tries matter.
  */
 export function createRateCounter(
 	db: Database,
@@ -42,12 +45,12 @@ export function createRateCounter(
 		windowS: number;
 		syncMs: number;
 		onError?: (error: unknown) => void;
-		/** The clock, in ms since the epoch; tests pass their own. */
+		/** The clock, in ms; tests give a fixed one. */
 		now?: () => number;
 	}
 ): RateCounter {
-	const now = options.now ?? Date.now;
 	const windowMs = options.windowS * 1000;
+	const clock = options.now ?? Date.now;
 	const entries = new Map<string, Entry>();
 	let timer: ReturnType<typeof setTimeout> | undefined;
 	let flushing: Promise<void> | undefined;
@@ -64,7 +67,7 @@ export function createRateCounter(
 		timer.unref?.();
 	}
 
-	function hit(buckets: readonly Bucket[], nowMs = now()): RateDecision {
+	function hit(buckets: readonly Bucket[], nowMs = clock()): RateDecision {
 		const windowStart = currentWindow(nowMs);
 		let retryAfterS = 0;
 		let count = 0;
@@ -140,7 +143,7 @@ export function createRateCounter(
 		}
 	}
 
-	async function flush(nowMs = now()) {
+	async function flush(nowMs = clock()) {
 		// One write at a time, so hits are never added twice.
 		while (flushing) await flushing;
 		flushing = write(nowMs).finally(() => (flushing = undefined));
@@ -157,4 +160,16 @@ export function createRateCounter(
 			await flush();
 		}
 	};
+}
+
+let apiCounter: RateCounter | undefined;
+
+/** The API's per-minute counters per address and per key: see `createRateCounter`. */
+export function apiRateCounter(): RateCounter {
+	apiCounter ??= createRateCounter(appDb, {
+		windowS: 60,
+		syncMs: getConfig().RATE_LIMIT_SYNC_MS,
+		onError: (error) => console.error('writing API rate counters failed', error)
+	});
+	return apiCounter;
 }
