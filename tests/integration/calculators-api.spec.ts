@@ -232,6 +232,46 @@ describe('service interval: the caller’s shop settings', () => {
 describe('POST /api/v1/calculators/[name]: bad input is 400 with the field, never a number', () => {
 	const cases: [string, string, unknown, string, RegExp?][] = [
 		['a body that is a list, not an object', 'freeze-point', [40], '', /JSON object/],
+		// These once hung the server: log(1 − d/V) rounded to 0 and the cycle count never ended.
+		...[1e17, 1e21, 1e308].map((capacityL): [string, string, unknown, string, RegExp] => [
+			`a capacity of ${capacityL} L`,
+			'drain-and-fill',
+			{ capacityL, drainL: 1, targetFreshPercent: 80 },
+			'capacityL',
+			/no vehicle cooling system holds more/
+		]),
+		[
+			'a drain of 1e-300 L',
+			'drain-and-fill',
+			{ capacityL: 10, drainL: 1e-300, targetFreshPercent: 80 },
+			'targetFreshPercent',
+			/more than 100 cycles/
+		],
+		['0 cycles', 'drain-and-fill', { capacityL: 10, drainL: 4, cycles: 0 }, 'cycles', /from 1/],
+		...['__proto__', 'constructor'].map((unit): [string, string, unknown, string, RegExp] => [
+			`"${unit}" as a unit`,
+			'unit-conversion',
+			{ value: 1, from: unit, to: 'kPa' },
+			'from',
+			/Unknown unit/
+		]),
+		['1e308 psi to convert', 'unit-conversion', { value: 1e308, from: 'psi', to: 'kPa' }, 'value'],
+		[
+			'−1e308 °C as a freeze point',
+			'glycol-for-freeze-point',
+			{ glycol: 'EG', basis: 'mass', freezePointC: -1e308 },
+			'freezePointC'
+		],
+		[
+			'an odometer of 1e12 km',
+			'service-interval',
+			{
+				lastChange: { kind: 'changed', date: '2020-01-01', odometerKm: 1e12 },
+				currentDate: '2024-01-01',
+				currentOdometerKm: 1e12
+			},
+			'lastChange.odometerKm'
+		],
 		[
 			'a missing required field',
 			'freeze-point',
@@ -409,6 +449,19 @@ describe('POST /api/v1/calculators/[name]: bad input is 400 with the field, neve
 		const res = await calculate('freeze-point', '{"glycol":"EG","basis":"mass","percent":1e400}');
 		expect(res.status).toBe(400);
 		expect(res.body.error.issues.map((i: { path: string }) => i.path)).toContain('percent');
+	});
+
+	it('200 with a date, never a 500, for 1e-9 km a day', async () => {
+		const res = await calculate('service-interval', {
+			lastChange: { kind: 'changed', date: '2020-01-01', odometerKm: 100_000 },
+			currentDate: '2024-01-01',
+			currentOdometerKm: 140_000,
+			averageKmPerDay: 1e-9
+		});
+		expect(res.status).toBe(200);
+		// Common practice, no source: the 60-month limit from 2020-01-01 falls on 2025-01-01.
+		expect(res.body.values.dueDate).toBe('2025-01-01');
+		expect(res.body.values.distanceDueDate).toBeNull();
 	});
 
 	it('400 for a body that is not JSON', async () => {

@@ -3,7 +3,8 @@ import { CalculatorError, throwIfIssues, type CalculatorIssue } from './errors';
 import { formatNumber } from './format';
 import type { ConcentrationBasis } from './freeze-point';
 import { toQuantity, type CalculatorResult, type Quantity } from './result';
-import { convertPressure, type PressureUnit } from './units';
+import { checkRange, inputRanges } from './ranges';
+import { convertPressure, pascalsPerUnit, type PressureUnit } from './units';
 
 /**
  * IAPWS-IF97 region 4: the saturation line of water (IAPWS R7-97(2012), eqs. 29–31). The
@@ -65,8 +66,8 @@ const LAPSE_RATE_K_PER_M = 0.0065;
 const STANDARD_GRAVITY_M_PER_S2 = 9.80665;
 const AIR_MOLAR_MASS_KG_PER_MOL = 0.0289644;
 const GAS_CONSTANT_1976_J_PER_MOL_K = 8.31432;
-export const MIN_ALTITUDE_M = -500;
-export const MAX_ALTITUDE_M = 11_000;
+export const MIN_ALTITUDE_M = inputRanges.altitudeM.min;
+export const MAX_ALTITUDE_M = inputRanges.altitudeM.max;
 
 export function findStandardAtmospherePressureKPa(altitudeM: number): number {
 	if (!(altitudeM >= MIN_ALTITUDE_M && altitudeM <= MAX_ALTITUDE_M)) {
@@ -142,7 +143,7 @@ export type BoilingPointValues = {
 };
 
 /** Pressure caps are built to open at 3–16 psi; anything far above is a wrong unit, not a cap. */
-export const MAX_CAP_GAUGE_KPA = 300;
+export const MAX_CAP_GAUGE_KPA = inputRanges.capGaugeKPa.max;
 /** A cap should open within about 10 % of its stamped rating (a heavy-truck maintenance manual). */
 export const CAP_TOLERANCE_FRACTION = 0.1;
 
@@ -156,29 +157,20 @@ export function checkBoilingPointInput(input: BoilingPointInput): CalculatorIssu
 			path: 'capGauge.value',
 			message: 'Cap pressure is a gauge pressure above the outside air and cannot be negative.'
 		});
-	} else if (convertPressure(value, unit, 'kPa') > MAX_CAP_GAUGE_KPA) {
+	} else if (!((value * pascalsPerUnit[unit]) / 1000 <= MAX_CAP_GAUGE_KPA)) {
 		issues.push({
 			path: 'capGauge.value',
 			message: `${formatNumber(value, 2)} ${unit} is far above any coolant cap (at most ${MAX_CAP_GAUGE_KPA} kPa, ${formatNumber(convertPressure(MAX_CAP_GAUGE_KPA, 'kPa', 'psi'), 1)} psi): check the unit.`
 		});
 	}
 	if (input.altitudeM !== undefined) {
-		const altitudeM = input.altitudeM;
-		if (!Number.isFinite(altitudeM) || altitudeM < MIN_ALTITUDE_M || altitudeM > MAX_ALTITUDE_M) {
-			issues.push({
-				path: 'altitudeM',
-				message: `Altitude must be between ${formatNumber(MIN_ALTITUDE_M)} and ${formatNumber(MAX_ALTITUDE_M)} m (the standard atmosphere's lowest layer).`
-			});
-		}
+		issues.push(...checkRange(input.altitudeM, inputRanges.altitudeM, 'altitudeM'));
 	}
 	if (input.glycol) {
 		const { percent } = input.glycol;
-		if (!Number.isFinite(percent) || percent < 0 || percent > 100) {
-			issues.push({
-				path: 'glycol.percent',
-				message: 'Glycol concentration must be between 0 and 100 %.'
-			});
-		} else if (percent > MAX_BOILING_GLYCOL_PERCENT) {
+		const rangeIssues = checkRange(percent, inputRanges.glycolPercent, 'glycol.percent');
+		issues.push(...rangeIssues);
+		if (rangeIssues.length === 0 && percent > MAX_BOILING_GLYCOL_PERCENT) {
 			issues.push({
 				path: 'glycol.percent',
 				message: `The boiling estimate is checked only up to ${MAX_BOILING_GLYCOL_PERCENT} % glycol. Above about ${MAX_BOILING_GLYCOL_PERCENT} % the freeze protection gets worse, not better: do not exceed ${MAX_BOILING_GLYCOL_PERCENT} %.`

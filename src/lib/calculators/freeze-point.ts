@@ -2,6 +2,7 @@ import { CAUTION_COOLANT_POISON, CAUTION_FOLLOW_PROCEDURE, CAUTION_HOT_CAP } fro
 import { CalculatorError, throwIfIssues, type CalculatorIssue } from './errors';
 import { formatNumber } from './format';
 import { createMonotoneCubic, type MonotoneCubic } from './pchip';
+import { checkRange, inputRanges } from './ranges';
 import { toQuantity, type CalculatorResult, type Quantity } from './result';
 
 export type GlycolType = 'EG' | 'PG';
@@ -205,11 +206,13 @@ export function checkFreezePoint(
 	path = 'freezePointC'
 ): CalculatorIssue[] {
 	if (!Number.isFinite(freezePointC)) return [{ path, message: 'Freeze point must be a number.' }];
-	if (freezePointC > 0) {
+	if (freezePointC > 0 && freezePointC <= inputRanges.freezePointC.max) {
 		return [
 			{ path, message: 'A freeze point above 0 °C is not possible: water alone freezes at 0 °C.' }
 		];
 	}
+	const physical = checkRange(freezePointC, inputRanges.freezePointC, path);
+	if (physical.length > 0) return physical;
 	const lowest = lowestFreezePointC(table);
 	if (freezePointC < lowest) {
 		const max = tableMaxPercent(table);
@@ -416,9 +419,7 @@ const MIX_TOLERANCE_PERCENT = 0.05;
 export function checkAdjustMixInput(input: AdjustMixInput): CalculatorIssue[] {
 	const issues: CalculatorIssue[] = [];
 	const table = findFreezeTable(input.glycol, 'volume');
-	if (!Number.isFinite(input.capacityL) || input.capacityL <= 0) {
-		issues.push({ path: 'capacityL', message: 'System capacity must be more than 0 L.' });
-	}
+	issues.push(...checkRange(input.capacityL, inputRanges.capacityL, 'capacityL'));
 	const hasPercent = input.currentPercent !== undefined;
 	const hasFreezePoint = input.currentFreezePointC !== undefined;
 	if (hasPercent && hasFreezePoint) {
@@ -433,13 +434,9 @@ export function checkAdjustMixInput(input: AdjustMixInput): CalculatorIssue[] {
 			message: 'Give the current mix: its measured freeze point or its concentration.'
 		});
 	} else if (hasPercent) {
-		const percent = input.currentPercent as number;
-		if (!Number.isFinite(percent) || percent < 0 || percent > 100) {
-			issues.push({
-				path: 'currentPercent',
-				message: 'Glycol concentration must be between 0 and 100 %.'
-			});
-		}
+		issues.push(
+			...checkRange(input.currentPercent as number, inputRanges.glycolPercent, 'currentPercent')
+		);
 	} else {
 		issues.push(
 			...checkFreezePoint(table, input.currentFreezePointC as number, 'currentFreezePointC')
@@ -448,7 +445,7 @@ export function checkAdjustMixInput(input: AdjustMixInput): CalculatorIssue[] {
 	const targetIssues = checkTargetFreezePoint(table, input.targetFreezePointC);
 	issues.push(...targetIssues);
 	const refillPercent = input.refillPercent ?? 100;
-	if (!Number.isFinite(refillPercent) || refillPercent <= 0 || refillPercent > 100) {
+	if (checkRange(refillPercent, inputRanges.refillPercent, 'refillPercent').length > 0) {
 		issues.push({
 			path: 'refillPercent',
 			message: 'The refill must contain more than 0 % and at most 100 % glycol.'
@@ -474,7 +471,7 @@ function checkTargetFreezePoint(table: FreezeTable, targetFreezePointC: number):
 	if (!Number.isFinite(targetFreezePointC)) {
 		return [{ path, message: 'Target freeze point must be a number.' }];
 	}
-	if (targetFreezePointC > 0) {
+	if (targetFreezePointC > 0 && targetFreezePointC <= inputRanges.freezePointC.max) {
 		return [
 			{
 				path,
@@ -482,6 +479,8 @@ function checkTargetFreezePoint(table: FreezeTable, targetFreezePointC: number):
 			}
 		];
 	}
+	const physical = checkRange(targetFreezePointC, inputRanges.freezePointC, path);
+	if (physical.length > 0) return physical;
 	const lowest = lowestFreezePointC(table);
 	if (targetFreezePointC < lowest) {
 		const max = tableMaxPercent(table);
