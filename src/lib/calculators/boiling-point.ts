@@ -211,6 +211,10 @@ export function boilingPointUnderCap(
 		waterFraction
 	);
 	const openCapC = findBoilingPointC(atmosphericKPa, waterFraction);
+	// Rounded to what the method supports: IF97 is good to 0.01 °C for water, the glycol
+	// estimate to about ±1.5 °C, so a mix is given in whole degrees.
+	const boilDecimals = glycol ? 0 : 2;
+	const rangeDecimals = glycol ? 0 : 1;
 
 	const steps = [
 		`Outside air at ${formatNumber(altitudeM, 0)} m (US Standard Atmosphere 1976 / ICAO): ${formatNumber(atmosphericKPa, 2)} kPa.`,
@@ -227,8 +231,8 @@ export function boilingPointUnderCap(
 		);
 	}
 	steps.push(
-		`Boiling point: ${formatNumber(boilingC, 2)} °C (water alone: ${formatNumber(waterBoilingC, 2)} °C).`,
-		`With the cap open (or a cap that no longer holds) the boiling point falls to ${formatNumber(openCapC, 1)} °C.`
+		`Boiling point: ${formatNumber(boilingC, boilDecimals)} °C (water alone: ${formatNumber(waterBoilingC, 2)} °C).`,
+		`With the cap open (or a cap that no longer holds) the boiling point falls to ${formatNumber(openCapC, rangeDecimals)} °C.`
 	);
 
 	const warnings: string[] = [];
@@ -250,10 +254,10 @@ export function boilingPointUnderCap(
 
 	return {
 		values: {
-			boilingPoint: toQuantity(boilingC, '°C', 2),
+			boilingPoint: toQuantity(boilingC, '°C', boilDecimals),
 			waterBoilingPoint: toQuantity(waterBoilingC, '°C', 2),
-			boilingPointIfCapOpensLow: toQuantity(lowC, '°C', 1),
-			boilingPointIfCapOpensHigh: toQuantity(highC, '°C', 1),
+			boilingPointIfCapOpensLow: toQuantity(lowC, '°C', rangeDecimals),
+			boilingPointIfCapOpensHigh: toQuantity(highC, '°C', rangeDecimals),
 			capGauge: toQuantity(capGaugeKPa, 'kPa', 2),
 			atmosphericPressure: toQuantity(atmosphericKPa, 'kPa', 2),
 			absolutePressure: toQuantity(absoluteKPa, 'kPa', 2),
@@ -261,7 +265,7 @@ export function boilingPointUnderCap(
 			waterMoleFraction: glycol ? toQuantity(waterFraction, 'mol/mol', 4) : null
 		},
 		basis,
-		accuracy: `${glycol ? 'Glycol mix: an estimate good to about ±1.5 °C against published boiling points. ' : 'Water: within about 0.01 °C of the steam tables at this pressure. '}A cap opens within about ±10 % of its rating, which puts the real boiling point between ${formatNumber(lowC, 1)} and ${formatNumber(highC, 1)} °C; a weather front moves the air pressure by a few kPa more.`,
+		accuracy: `${glycol ? 'Glycol mix: an estimate good to about ±1.5 °C against published boiling points. ' : 'Water: within about 0.01 °C of the steam tables at this pressure. '}A cap opens within about ±10 % of its rating, which puts the real boiling point between ${formatNumber(lowC, rangeDecimals)} and ${formatNumber(highC, rangeDecimals)} °C; a weather front moves the air pressure by a few kPa more.`,
 		warnings,
 		cautions: [CAUTION_HOT_CAP, CAUTION_COOLANT_POISON],
 		steps

@@ -1,8 +1,8 @@
 import { CAUTION_COOLANT_POISON, CAUTION_FOLLOW_PROCEDURE, CAUTION_HOT_CAP } from './cautions';
 import { throwIfIssues, type CalculatorIssue } from './errors';
-import { formatNumber } from './format';
+import { formatNumber, roundTo } from './format';
 import { checkRange, inputRanges } from './ranges';
-import { toQuantity, type CalculatorResult, type Quantity } from './result';
+import { toQuantity, type CalculatorResult, type Quantity, type ResultChart } from './result';
 
 /**
  * Partial drain-and-fill: each cycle drains d of the V litres (well mixed after a run) and
@@ -194,6 +194,28 @@ export function calculateDrainFill(input: DrainFillInput): CalculatorResult<Drai
 			'Only as good as the drained volume: measure what actually comes out. Coolant that does not circulate between cycles (heater valve closed, thermostat shut) lowers the real figure.',
 		warnings: [],
 		cautions: [CAUTION_HOT_CAP, CAUTION_COOLANT_POISON, CAUTION_FOLLOW_PROCEDURE],
+		charts: totalCycles > 0 ? [describeFreshChart(input, totalCycles)] : [],
 		steps
+	};
+}
+
+/** One bar per cycle (at most MAX_CYCLES), from the same formula as the answer. */
+function describeFreshChart(input: DrainFillInput, totalCycles: number): ResultChart {
+	const points = [];
+	for (let cycle = 1; cycle <= Math.min(totalCycles, MAX_CYCLES); cycle++) {
+		const fresh = findFreshFraction(input.capacityL, input.drainL, cycle) * 100;
+		points.push({ x: cycle, y: roundTo(fresh, 1) });
+	}
+	return {
+		id: 'fresh-share',
+		kind: 'bars',
+		title: 'Fresh coolant after each cycle',
+		x: { label: 'Drain-and-fill cycle', unit: '' },
+		y: { label: 'Fresh coolant', unit: '%' },
+		points,
+		target:
+			input.targetFreshPercent === undefined
+				? undefined
+				: { label: 'Target', y: roundTo(input.targetFreshPercent, 1) }
 	};
 }

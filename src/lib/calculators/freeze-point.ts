@@ -1,9 +1,15 @@
 import { CAUTION_COOLANT_POISON, CAUTION_FOLLOW_PROCEDURE, CAUTION_HOT_CAP } from './cautions';
 import { CalculatorError, throwIfIssues, type CalculatorIssue } from './errors';
-import { formatNumber } from './format';
+import { formatNumber, roundTo } from './format';
 import { createMonotoneCubic, type MonotoneCubic } from './pchip';
 import { checkRange, inputRanges } from './ranges';
-import { toQuantity, type CalculatorResult, type Quantity } from './result';
+import {
+	toQuantity,
+	type CalculatorResult,
+	type ChartPoint,
+	type Quantity,
+	type ResultChart
+} from './result';
 
 export type GlycolType = 'EG' | 'PG';
 export type ConcentrationBasis = 'mass' | 'volume';
@@ -263,6 +269,38 @@ export function locateInTable(
 	};
 }
 
+/**
+ * The table's freeze-point curve every 1 % (the same interpolation the answer uses), its printed
+ * points, and this answer's marks; marks outside the table are left off the chart.
+ */
+export function describeFreezeChart(
+	table: FreezeTable,
+	marks: (ChartPoint & { label: string })[]
+): ResultChart {
+	const curve = findCurve(table);
+	const max = tableMaxPercent(table);
+	const points: ChartPoint[] = [];
+	for (let percent = tableMinPercent(table); percent <= max; percent++) {
+		points.push({ x: percent, y: roundTo(curve.evaluate(percent), table.freezePointDecimals) });
+	}
+	return {
+		id: 'freeze-curve',
+		kind: 'line',
+		title: `Freeze point against glycol: ${table.title}`,
+		x: { label: 'Glycol', unit: concentrationUnit(table.basis) },
+		y: { label: 'Freezes at', unit: '°C' },
+		points,
+		tablePoints: table.points.map((p) => ({ x: p.percent, y: p.freezePointC })),
+		marks: marks
+			.filter((m) => m.x >= tableMinPercent(table) && m.x <= max)
+			.map((m) => ({
+				label: m.label,
+				x: roundTo(m.x, 1),
+				y: roundTo(m.y, table.freezePointDecimals)
+			}))
+	};
+}
+
 function describeBasis(table: FreezeTable): string {
 	return `Freeze point table for ${table.title}: ${table.source}; 0 % is pure water (0 °C). Values between table points are interpolated with a monotone cubic (PCHIP); nothing outside the table is extrapolated.`;
 }
@@ -325,6 +363,9 @@ export function calculateFreezePoint(input: FreezePointInput): CalculatorResult<
 		accuracy: describeAccuracy(table),
 		warnings: warnAboutStrength(input.percent),
 		cautions: [CAUTION_COOLANT_POISON],
+		charts: [
+			describeFreezeChart(table, [{ label: 'This mix', x: input.percent, y: freezePointC }])
+		],
 		steps: [
 			`Table: ${table.title}.`,
 			position.description,
@@ -378,6 +419,7 @@ export function calculateGlycolForFreezePoint(
 		accuracy: describeAccuracy(table),
 		warnings: warnAboutStrength(percent),
 		cautions: [CAUTION_COOLANT_POISON],
+		charts: [describeFreezeChart(table, [{ label: 'Needed', x: percent, y: input.freezePointC }])],
 		steps: [
 			`Table: ${table.title}.`,
 			position.description,
@@ -590,6 +632,14 @@ export function adjustMix(input: AdjustMixInput): CalculatorResult<AdjustMixValu
 			'Assumes the drained coolant has the average strength of the whole system and that volumes simply add (they shrink by about 1 %). Coolant left in the block and heater mixes in only after it circulates, so always recheck.',
 		warnings,
 		cautions: [CAUTION_HOT_CAP, CAUTION_COOLANT_POISON, CAUTION_FOLLOW_PROCEDURE],
+		charts: [
+			describeFreezeChart(table, [
+				...(currentFreezePointC === null
+					? []
+					: [{ label: 'Now', x: currentPercent, y: currentFreezePointC }]),
+				{ label: 'Target', x: targetPercent, y: input.targetFreezePointC }
+			])
+		],
 		steps
 	};
 }

@@ -174,6 +174,22 @@ export const serviceIntervalInputSchema = strictObject({
 
 export const quantitySchema = z.object({ value: z.number(), unit: z.string() });
 
+const chartPointSchema = z.object({ x: z.number(), y: z.number() });
+const chartAxisSchema = z.object({ label: z.string(), unit: z.string() });
+
+/** A chart of the answer, in the result's own numbers (see ResultChart). */
+export const resultChartSchema = z.object({
+	id: z.string(),
+	kind: z.enum(['line', 'bars']),
+	title: z.string(),
+	x: chartAxisSchema,
+	y: chartAxisSchema,
+	points: z.array(chartPointSchema),
+	tablePoints: z.array(chartPointSchema).optional(),
+	marks: z.array(chartPointSchema.extend({ label: z.string() })).optional(),
+	target: z.object({ label: z.string(), y: z.number() }).optional()
+});
+
 /** The one result shape every calculator returns (for the OpenAPI document and for clients). */
 export const calculatorResultSchema = z.object({
 	values: z.record(z.string(), z.union([quantitySchema, z.string(), z.boolean(), z.null()])),
@@ -181,7 +197,8 @@ export const calculatorResultSchema = z.object({
 	accuracy: z.string().optional(),
 	warnings: z.array(z.string()),
 	cautions: z.array(z.string()),
-	steps: z.array(z.string()).optional()
+	steps: z.array(z.string()).optional(),
+	charts: z.array(resultChartSchema).optional()
 });
 
 /** Turns a schema failure into the calculators' one error type, with every issue at its field. */
