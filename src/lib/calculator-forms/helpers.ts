@@ -1,7 +1,7 @@
 import {
 	CalculatorError,
 	convertTemperature,
-	convertVolume,
+	litresPerUnit,
 	type VolumeUnit
 } from '../calculators';
 import { choiceOf, type TemperatureChoice } from './display';
@@ -37,7 +37,8 @@ export function readConverted(
 
 export const toCelsius = (unit: TemperatureChoice) => (value: number) =>
 	convertTemperature(value, unit, '°C');
-export const toLitres = (unit: VolumeUnit) => (value: number) => convertVolume(value, unit, 'L');
+/** Plain scaling, so that the calculator's own range (not the converter's) judges the volume. */
+export const toLitres = (unit: VolumeUnit) => (value: number) => value * litresPerUnit[unit];
 
 export const temperatureUnitOf = (values: FormValues) =>
 	choiceOf(values.temperatureUnit, ['°C', '°F'] as const);
