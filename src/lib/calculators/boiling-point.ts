@@ -180,6 +180,36 @@ export function checkBoilingPointInput(input: BoilingPointInput): CalculatorIssu
 	return issues;
 }
 
+function describeMixSteps(
+	glycol: NonNullable<BoilingPointInput['glycol']>,
+	massPercent: number,
+	waterFraction: number,
+	absoluteKPa: number
+): string[] {
+	const steps: string[] = [];
+	if (glycol.basis === 'volume') {
+		steps.push(
+			`${formatNumber(glycol.percent, 1)} % by volume is ${formatNumber(massPercent, 1)} % by mass (densities at 20 °C: glycol ${ETHYLENE_GLYCOL_DENSITY_G_PER_ML} g/mL, water ${WATER_DENSITY_G_PER_ML} g/mL).`
+		);
+	}
+	steps.push(
+		`Water mole fraction: ${formatNumber(waterFraction, 4)}. The mix boils where ${formatNumber(waterFraction, 4)} × Ps(T) = ${formatNumber(absoluteKPa, 2)} kPa, i.e. where water alone would at ${formatNumber(absoluteKPa / waterFraction, 2)} kPa.`
+	);
+	return steps;
+}
+
+function describeBoilingBasis(withGlycol: boolean): string {
+	return [
+		'Water: IAPWS-IF97 region 4 saturation equation (IAPWS R7-97(2012)).',
+		'Outside air: US Standard Atmosphere 1976 (ICAO standard atmosphere) barometric formula, troposphere layer.',
+		withGlycol
+			? "Ethylene glycol mix: Raoult's law on the water mole fraction, glycol vapour pressure neglected."
+			: ''
+	]
+		.filter(Boolean)
+		.join(' ');
+}
+
 /**
  * Boiling point of the coolant while the cap holds: absolute pressure = standard-atmosphere
  * pressure at the altitude + the cap's gauge pressure; water from IF97, an ethylene glycol mix
@@ -221,14 +251,7 @@ export function boilingPointUnderCap(
 		`Cap ${formatNumber(input.capGauge.value, 2)} ${input.capGauge.unit} = ${formatNumber(capGaugeKPa, 2)} kPa gauge, so the system boils at ${formatNumber(atmosphericKPa, 2)} + ${formatNumber(capGaugeKPa, 2)} = ${formatNumber(absoluteKPa, 2)} kPa absolute.`
 	];
 	if (glycol && massPercent !== null) {
-		if (glycol.basis === 'volume') {
-			steps.push(
-				`${formatNumber(glycol.percent, 1)} % by volume is ${formatNumber(massPercent, 1)} % by mass (densities at 20 °C: glycol ${ETHYLENE_GLYCOL_DENSITY_G_PER_ML} g/mL, water ${WATER_DENSITY_G_PER_ML} g/mL).`
-			);
-		}
-		steps.push(
-			`Water mole fraction: ${formatNumber(waterFraction, 4)}. The mix boils where ${formatNumber(waterFraction, 4)} × Ps(T) = ${formatNumber(absoluteKPa, 2)} kPa, i.e. where water alone would at ${formatNumber(absoluteKPa / waterFraction, 2)} kPa.`
-		);
+		steps.push(...describeMixSteps(glycol, massPercent, waterFraction, absoluteKPa));
 	}
 	steps.push(
 		`Boiling point: ${formatNumber(boilingC, boilDecimals)} °C (water alone: ${formatNumber(waterBoilingC, 2)} °C).`,
@@ -242,15 +265,7 @@ export function boilingPointUnderCap(
 		);
 	}
 
-	const basis = [
-		'Water: IAPWS-IF97 region 4 saturation equation (IAPWS R7-97(2012)).',
-		'Outside air: US Standard Atmosphere 1976 (ICAO standard atmosphere) barometric formula, troposphere layer.',
-		glycol
-			? "Ethylene glycol mix: Raoult's law on the water mole fraction, glycol vapour pressure neglected."
-			: ''
-	]
-		.filter(Boolean)
-		.join(' ');
+	const basis = describeBoilingBasis(glycol !== undefined);
 
 	return {
 		values: {

@@ -540,6 +540,59 @@ function checkTargetFreezePoint(table: FreezeTable, targetFreezePointC: number):
 	return [];
 }
 
+type MixFigures = {
+	capacityL: number;
+	currentPercent: number;
+	targetPercent: number;
+	refillPercent: number;
+};
+
+/** x = V (ct − c0) / (r − c0) to strengthen with the refill; with water (r = 0) to weaken. */
+function findDrain(
+	{ capacityL, currentPercent, targetPercent, refillPercent }: MixFigures,
+	steps: string[]
+): { drainL: number; addFluid: AdjustMixFluid } {
+	const f1 = (n: number) => formatNumber(n, 1);
+	if (Math.abs(targetPercent - currentPercent) <= MIX_TOLERANCE_PERCENT) {
+		steps.push('The mix is already at the target: nothing to drain or add.');
+		return { drainL: 0, addFluid: 'none' };
+	}
+	if (targetPercent > currentPercent) {
+		const drainL =
+			(capacityL * (targetPercent - currentPercent)) / (refillPercent - currentPercent);
+		steps.push(
+			`Drain = ${formatNumber(capacityL, 2)} L × (${f1(targetPercent)} − ${f1(currentPercent)}) / (${f1(refillPercent)} − ${f1(currentPercent)}) = ${formatNumber(drainL, 2)} L.`
+		);
+		return { drainL, addFluid: refillPercent >= 100 ? 'concentrate' : 'premix' };
+	}
+	const drainL = (capacityL * (currentPercent - targetPercent)) / currentPercent;
+	steps.push(
+		`Drain = ${formatNumber(capacityL, 2)} L × (${f1(currentPercent)} − ${f1(targetPercent)}) / ${f1(currentPercent)} = ${formatNumber(drainL, 2)} L.`
+	);
+	return { drainL, addFluid: 'water' };
+}
+
+/** The work at the vehicle, step by step, once the volume is known. */
+function describeWork(
+	addFluid: Exclude<AdjustMixFluid, 'none'>,
+	drainL: number,
+	refillStrength: string,
+	glycol: string
+): string[] {
+	const fluidName =
+		addFluid === 'water'
+			? 'clean water (distilled or deionised where the coolant maker asks for it)'
+			: addFluid === 'concentrate'
+				? `${glycol} concentrate`
+				: `${refillStrength} premixed coolant`;
+	return [
+		`With the engine cold and the cap released, drain ${formatNumber(drainL, 1)} L of coolant into a clean container.`,
+		`Add ${formatNumber(drainL, 1)} L of ${fluidName}, then top up to the cold mark with the same fluid if the level is short.`,
+		'Run the engine with the heater on full until the coolant has circulated, bleed any air, and let it cool.',
+		'Recheck the freeze point with a refractometer or hydrometer; repeat with a smaller amount if it is not yet on target.'
+	];
+}
+
 /**
  * How much coolant to drain and replace to reach a target freeze point, on a volume basis
  * (the way concentrate and premix are sold). Strengthening replaces drained coolant with the
@@ -570,27 +623,18 @@ export function adjustMix(input: AdjustMixInput): CalculatorResult<AdjustMixValu
 		`Protection to ${formatNumber(input.targetFreezePointC, 1)} °C needs about ${formatNumber(targetPercent, 1)} % ${glycol} by volume.`
 	);
 
-	let drainL = 0;
-	let addFluid: AdjustMixFluid = 'none';
-	if (Math.abs(targetPercent - currentPercent) <= MIX_TOLERANCE_PERCENT) {
-		steps.push('The mix is already at the target: nothing to drain or add.');
-	} else if (targetPercent > currentPercent) {
-		drainL = (capacityL * (targetPercent - currentPercent)) / (refillPercent - currentPercent);
-		addFluid = refillPercent >= 100 ? 'concentrate' : 'premix';
-		steps.push(
-			`Drain = ${formatNumber(capacityL, 2)} L × (${formatNumber(targetPercent, 1)} − ${formatNumber(currentPercent, 1)}) / (${formatNumber(refillPercent, 1)} − ${formatNumber(currentPercent, 1)}) = ${formatNumber(drainL, 2)} L.`
+	const { drainL, addFluid } = findDrain(
+		{ capacityL, currentPercent, targetPercent, refillPercent },
+		steps
+	);
+	if (
+		addFluid === 'water' &&
+		currentFreezePointC !== null &&
+		currentFreezePointC <= input.targetFreezePointC
+	) {
+		warnings.push(
+			'The current mix already protects to the target or lower; dilute only to bring it back to the specified strength.'
 		);
-	} else {
-		drainL = (capacityL * (currentPercent - targetPercent)) / currentPercent;
-		addFluid = 'water';
-		steps.push(
-			`Drain = ${formatNumber(capacityL, 2)} L × (${formatNumber(currentPercent, 1)} − ${formatNumber(targetPercent, 1)}) / ${formatNumber(currentPercent, 1)} = ${formatNumber(drainL, 2)} L.`
-		);
-		if (currentFreezePointC !== null && currentFreezePointC <= input.targetFreezePointC) {
-			warnings.push(
-				'The current mix already protects to the target or lower; dilute only to bring it back to the specified strength.'
-			);
-		}
 	}
 	if (currentPercent > GLYCOL_LIMIT_PERCENT) {
 		warnings.push(
@@ -600,18 +644,7 @@ export function adjustMix(input: AdjustMixInput): CalculatorResult<AdjustMixValu
 	warnings.push(...warnAboutStrength(targetPercent));
 
 	if (addFluid !== 'none') {
-		const fluidName =
-			addFluid === 'water'
-				? 'clean water (distilled or deionised where the coolant maker asks for it)'
-				: addFluid === 'concentrate'
-					? `${glycol} concentrate`
-					: `${formatNumber(refillPercent, 1)} % premixed coolant`;
-		steps.push(
-			`With the engine cold and the cap released, drain ${formatNumber(drainL, 1)} L of coolant into a clean container.`,
-			`Add ${formatNumber(drainL, 1)} L of ${fluidName}, then top up to the cold mark with the same fluid if the level is short.`,
-			'Run the engine with the heater on full until the coolant has circulated, bleed any air, and let it cool.',
-			'Recheck the freeze point with a refractometer or hydrometer; repeat with a smaller amount if it is not yet on target.'
-		);
+		steps.push(...describeWork(addFluid, drainL, `${formatNumber(refillPercent, 1)} %`, glycol));
 	}
 
 	return {
