@@ -27,7 +27,11 @@ test('a technician works out a freeze point and the boiling point under a 15 psi
 	const freezeRow = freeze.locator('[data-row="freezePoint"]');
 	await expect(freezeRow).toContainText('−37 °C');
 	await expect(freezeRow).toContainText('°F');
-	await expect(freeze.getByRole('img', { name: /Freeze-point curve/ })).toBeVisible();
+	await expect(freeze.getByRole('img', { name: /Freeze point against glycol/ })).toBeVisible();
+	// The chart's numbers are beside it in a table: 50 % and the printed table points.
+	const table = freeze.getByRole('table', { name: /Freeze point against glycol/ });
+	await expect(table.getByRole('row', { name: /This mix: 50/ })).toContainText('−37');
+	await expect(freeze.locator('svg path').first()).toBeVisible();
 	await expect(freeze.getByText(/poisonous to people and animals/)).toBeVisible();
 
 	// US Army TM 5-6115-400-12: more glycol than about 60 % protects less.
@@ -76,6 +80,26 @@ test('on a tablet the page fits the screen and the drain-and-fill bars appear', 
 	await expect(section.locator('[data-row="renewedPerCycle"]')).toContainText('40 %');
 	await expect(section.locator('[data-row="freshAfterCycles"]')).toContainText('64 %');
 	await expect(section.getByRole('img', { name: /Fresh coolant after each cycle/ })).toBeVisible();
+	const bars = section.getByRole('table', { name: 'Fresh coolant after each cycle' });
+	await expect(bars.getByRole('row')).toHaveCount(3); // a header and one row per cycle
+	await expect(bars.getByRole('row', { name: '2' })).toContainText('64');
+	// "50,5"-style input: a decimal comma is read as a decimal, letters are refused by name.
+	await section.getByLabel('Drained each cycle (same unit)').fill('4,5');
+	await section.getByLabel('Number of cycles').fill('0');
+	await section.getByRole('button', { name: 'Calculate' }).click();
+	await expect(
+		section.getByText('Number of cycles must be a whole number from 1 to 100.')
+	).toBeVisible();
+	await expect(section.getByLabel('Number of cycles')).toBeFocused();
+	await section.getByLabel('Number of cycles').fill('one');
+	await section.getByRole('button', { name: 'Calculate' }).click();
+	await expect(
+		section.getByText(/Number of cycles must be a number, such as 50.5 or 50,5/)
+	).toBeVisible();
+	await section.getByLabel('Number of cycles').fill('1');
+	await section.getByRole('button', { name: 'Calculate' }).click();
+	// 4.5 L of 10 L renews 45 % a cycle (worked by hand).
+	await expect(section.locator('[data-row="renewedPerCycle"]')).toContainText('45 %');
 	const overflow = await page.evaluate(
 		() => document.documentElement.scrollWidth - document.documentElement.clientWidth
 	);

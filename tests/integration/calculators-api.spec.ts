@@ -8,6 +8,23 @@ const calculate = (name: string, body: unknown, headers: Record<string, string> 
 
 type Quantity = { value: number; unit: string };
 type Row = { key: string; label: string; text: string; also?: string };
+type FormAnswer = {
+	data: Record<string, string>;
+	errors: Record<string, string[] | undefined>;
+	message?:
+		| { kind: 'result'; result: { values: Record<string, Quantity> }; rows: Row[] }
+		| { kind: 'error'; text: string };
+};
+/** The superforms form an action answers with: its values, field errors and message. */
+const formOf = (data: Record<string, unknown> | undefined) => data?.form as FormAnswer;
+const rowsOf = (data: Record<string, unknown> | undefined) => {
+	const message = formOf(data)?.message;
+	return message?.kind === 'result' ? message.rows : undefined;
+};
+const resultOf = (data: Record<string, unknown> | undefined) => {
+	const message = formOf(data)?.message;
+	return message?.kind === 'result' ? message.result : undefined;
+};
 
 const REGISTRY = [
 	'unit-conversion',
@@ -215,9 +232,7 @@ describe('service interval: the caller’s shop settings', () => {
 			currentOdometerKm: String(body.currentOdometerKm)
 		});
 		expect(res.type).toBe('success');
-		expect((res.data?.rows as Row[]).find((row) => row.key === 'dueOdometer')?.text).toBe(
-			'140,000 km'
-		);
+		expect(rowsOf(res.data)?.find((row) => row.key === 'dueOdometer')?.text).toBe('140,000 km');
 	});
 
 	it('shows the shop’s interval as the defaults of the page’s service-interval form', async () => {
@@ -232,6 +247,46 @@ describe('service interval: the caller’s shop settings', () => {
 describe('POST /api/v1/calculators/[name]: bad input is 400 with the field, never a number', () => {
 	const cases: [string, string, unknown, string, RegExp?][] = [
 		['a body that is a list, not an object', 'freeze-point', [40], '', /JSON object/],
+		// These once hung the server: log(1 − d/V) rounded to 0 and the cycle count never ended.
+		...[1e17, 1e21, 1e308].map((capacityL): [string, string, unknown, string, RegExp] => [
+			`a capacity of ${capacityL} L`,
+			'drain-and-fill',
+			{ capacityL, drainL: 1, targetFreshPercent: 80 },
+			'capacityL',
+			/no vehicle cooling system holds more/
+		]),
+		[
+			'a drain of 1e-300 L',
+			'drain-and-fill',
+			{ capacityL: 10, drainL: 1e-300, targetFreshPercent: 80 },
+			'targetFreshPercent',
+			/more than 100 cycles/
+		],
+		['0 cycles', 'drain-and-fill', { capacityL: 10, drainL: 4, cycles: 0 }, 'cycles', /from 1/],
+		...['__proto__', 'constructor'].map((unit): [string, string, unknown, string, RegExp] => [
+			`"${unit}" as a unit`,
+			'unit-conversion',
+			{ value: 1, from: unit, to: 'kPa' },
+			'from',
+			/Unknown unit/
+		]),
+		['1e308 psi to convert', 'unit-conversion', { value: 1e308, from: 'psi', to: 'kPa' }, 'value'],
+		[
+			'−1e308 °C as a freeze point',
+			'glycol-for-freeze-point',
+			{ glycol: 'EG', basis: 'mass', freezePointC: -1e308 },
+			'freezePointC'
+		],
+		[
+			'an odometer of 1e12 km',
+			'service-interval',
+			{
+				lastChange: { kind: 'changed', date: '2020-01-01', odometerKm: 1e12 },
+				currentDate: '2024-01-01',
+				currentOdometerKm: 1e12
+			},
+			'lastChange.odometerKm'
+		],
 		[
 			'a missing required field',
 			'freeze-point',
@@ -411,6 +466,19 @@ describe('POST /api/v1/calculators/[name]: bad input is 400 with the field, neve
 		expect(res.body.error.issues.map((i: { path: string }) => i.path)).toContain('percent');
 	});
 
+	it('200 with a date, never a 500, for 1e-9 km a day', async () => {
+		const res = await calculate('service-interval', {
+			lastChange: { kind: 'changed', date: '2020-01-01', odometerKm: 100_000 },
+			currentDate: '2024-01-01',
+			currentOdometerKm: 140_000,
+			averageKmPerDay: 1e-9
+		});
+		expect(res.status).toBe(200);
+		// Common practice, no source: the 60-month limit from 2020-01-01 falls on 2025-01-01.
+		expect(res.body.values.dueDate).toBe('2025-01-01');
+		expect(res.body.values.distanceDueDate).toBeNull();
+	});
+
 	it('400 for a body that is not JSON', async () => {
 		const res = await calculate('freeze-point', '{"glycol": "EG",');
 		expect(res.status).toBe(400);
@@ -477,7 +545,7 @@ describe('the Calculators page’s form actions', () => {
 	});
 
 	const rowOf = (data: Record<string, unknown> | undefined, key: string) =>
-		(data?.rows as Row[] | undefined)?.find((row) => row.key === key);
+		rowsOf(data)?.find((row) => row.key === key);
 
 	it('freezePoint returns the result with every number and its unit', async () => {
 		// CRC Handbook, 102nd ed. (2021): 40 wt % EG → −23.84 °C; °F = °C × 9/5 + 32 = −10.9 °F.
@@ -488,8 +556,7 @@ describe('the Calculators page’s form actions', () => {
 			temperatureUnit: '°C'
 		});
 		expect(res.type).toBe('success');
-		const result = res.data?.result as { values: { freezePoint: Quantity } };
-		expect(result.values.freezePoint).toEqual({ value: -23.84, unit: '°C' });
+		expect(resultOf(res.data)?.values.freezePoint).toEqual({ value: -23.84, unit: '°C' });
 		expect(rowOf(res.data, 'freezePoint')).toMatchObject({ text: '−23.84 °C', also: '−10.9 °F' });
 	});
 
@@ -523,9 +590,10 @@ describe('the Calculators page’s form actions', () => {
 		expect(res.type).toBe('success');
 		expect(rowOf(res.data, 'renewedPerCycle')?.text).toBe('40 %');
 		expect(rowOf(res.data, 'coolantNeeded')).toMatchObject({ text: '12 US gal', also: '45.42 L' });
-		const chart = res.data?.chart as { kind: string; bars: { freshPercent: number }[] };
-		expect(chart.kind).toBe('fresh');
-		expect(chart.bars.map((b) => Math.round(b.freshPercent * 10) / 10)).toEqual([40, 64, 78.4]);
+		const charts = (resultOf(res.data) as { charts?: { id: string; points: { y: number }[] }[] })
+			?.charts;
+		expect(charts?.[0].id).toBe('fresh-share');
+		expect(charts?.[0].points.map((p) => p.y)).toEqual([40, 64, 78.4]);
 	});
 
 	it('glycolForFreezePoint reads a target in °F', async () => {
@@ -537,9 +605,9 @@ describe('the Calculators page’s form actions', () => {
 			temperatureUnit: '°F'
 		});
 		expect(res.type).toBe('success');
-		const values = (res.data?.result as { values: { concentration: Quantity } }).values;
-		expect(values.concentration.unit).toBe('vol %');
-		expect(values.concentration.value).toBeCloseTo(50, 0);
+		const values = resultOf(res.data)?.values;
+		expect(values?.concentration.unit).toBe('vol %');
+		expect(values?.concentration.value).toBeCloseTo(50, 0);
 	});
 
 	it('answers an impossible mix with a message at its field and no result', async () => {
@@ -551,9 +619,9 @@ describe('the Calculators page’s form actions', () => {
 		});
 		expect(res.type).toBe('failure');
 		expect(res.status).toBe(400);
-		expect((res.data?.errors as Record<string, string>).percent).toMatch(/do not exceed 60 %/);
-		expect(res.data?.result).toBeUndefined();
-		expect((res.data?.values as Record<string, string>).percent).toBe('70');
+		expect(formOf(res.data).errors.percent?.[0]).toMatch(/do not exceed 60 %/);
+		expect(resultOf(res.data)).toBeUndefined();
+		expect(formOf(res.data).data.percent).toBe('70');
 	});
 
 	it('answers text in a number field with a message at that field, not a zero', async () => {
@@ -565,7 +633,75 @@ describe('the Calculators page’s form actions', () => {
 			targetFresh: ''
 		});
 		expect(res.type).toBe('failure');
-		expect((res.data?.errors as Record<string, string>).drain).toMatch(/must be a number/);
+		expect(formOf(res.data).errors.drain?.[0]).toBe(
+			'Drained each cycle (same unit) must be a number, such as 50.5 or 50,5 (no letters or units).'
+		);
+	});
+
+	it('reads a decimal comma: 50,5 % is 50.5 %, not 505 %', async () => {
+		// US Army TM 5-3895-382-24 gives 50 vol % → −37 °C; just above it the mix freezes lower.
+		const res = await technician.action('/calculators?/freezePoint', {
+			glycol: 'EG',
+			basis: 'volume',
+			percent: '50,5',
+			temperatureUnit: '°C'
+		});
+		expect(res.type).toBe('success');
+		expect(resultOf(res.data)?.values.concentration).toEqual({ value: 50.5, unit: 'vol %' });
+	});
+
+	it('asks instead of guessing when a comma could group thousands', async () => {
+		const res = await technician.action('/calculators?/drainAndFill', {
+			capacity: '1,500',
+			drain: '4',
+			volumeUnit: 'L',
+			cycles: '1',
+			targetFresh: ''
+		});
+		expect(res.type).toBe('failure');
+		expect(formOf(res.data).errors.capacity?.[0]).toMatch(/could mean 1\.500 or 1500/);
+	});
+
+	it('refuses 0 cycles and a capacity no system has through the form, with no hang', async () => {
+		const zero = await technician.action('/calculators?/drainAndFill', {
+			capacity: '10',
+			drain: '4',
+			volumeUnit: 'L',
+			cycles: '0',
+			targetFresh: ''
+		});
+		expect(formOf(zero.data).errors.cycles?.[0]).toMatch(/whole number from 1 to 100/);
+		const huge = await technician.action('/calculators?/drainAndFill', {
+			capacity: '100000000000000000',
+			drain: '1',
+			volumeUnit: 'L',
+			cycles: '',
+			targetFresh: '80'
+		});
+		expect(huge.type).toBe('failure');
+		expect(formOf(huge.data).errors.capacity?.[0]).toMatch(/no vehicle cooling system/);
+	});
+
+	it('refuses "__proto__" as a unit and a broken multipart body with a 400, not a 500', async () => {
+		const proto = await technician.action('/calculators?/unitConversion', {
+			value: '1',
+			from: '__proto__',
+			to: 'kPa'
+		});
+		expect(proto.type).toBe('failure');
+		expect(formOf(proto.data).errors.from?.[0]).toMatch(/Choose one of/);
+		const broken = await technician.request('/calculators?/drainAndFill', {
+			method: 'POST',
+			headers: {
+				origin: technician.baseUrl,
+				accept: 'application/json',
+				'x-sveltekit-action': 'true',
+				'content-type': 'multipart/form-data; boundary=xyz'
+			},
+			body: '--xyz\r\nContent-Disposition: form-data; name="capacity"\r\n\r\n10'
+		});
+		expect(broken.status).toBe(200);
+		expect(((await broken.json()) as { status: number }).status).toBe(400);
 	});
 
 	it('sends a signed-out post to sign in', async () => {

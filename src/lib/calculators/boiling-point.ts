@@ -3,7 +3,8 @@ import { CalculatorError, throwIfIssues, type CalculatorIssue } from './errors';
 import { formatNumber } from './format';
 import type { ConcentrationBasis } from './freeze-point';
 import { toQuantity, type CalculatorResult, type Quantity } from './result';
-import { convertPressure, type PressureUnit } from './units';
+import { checkRange, inputRanges } from './ranges';
+import { convertPressure, pascalsPerUnit, type PressureUnit } from './units';
 
 /**
  * IAPWS-IF97 region 4: the saturation line of water (IAPWS R7-97(2012), eqs. 29–31). The
@@ -65,8 +66,8 @@ const LAPSE_RATE_K_PER_M = 0.0065;
 const STANDARD_GRAVITY_M_PER_S2 = 9.80665;
 const AIR_MOLAR_MASS_KG_PER_MOL = 0.0289644;
 const GAS_CONSTANT_1976_J_PER_MOL_K = 8.31432;
-export const MIN_ALTITUDE_M = -500;
-export const MAX_ALTITUDE_M = 11_000;
+export const MIN_ALTITUDE_M = inputRanges.altitudeM.min;
+export const MAX_ALTITUDE_M = inputRanges.altitudeM.max;
 
 export function findStandardAtmospherePressureKPa(altitudeM: number): number {
 	if (!(altitudeM >= MIN_ALTITUDE_M && altitudeM <= MAX_ALTITUDE_M)) {
@@ -142,7 +143,7 @@ export type BoilingPointValues = {
 };
 
 /** Pressure caps are built to open at 3–16 psi; anything far above is a wrong unit, not a cap. */
-export const MAX_CAP_GAUGE_KPA = 300;
+export const MAX_CAP_GAUGE_KPA = inputRanges.capGaugeKPa.max;
 /** A cap should open within about 10 % of its stamped rating (a heavy-truck maintenance manual). */
 export const CAP_TOLERANCE_FRACTION = 0.1;
 
@@ -156,29 +157,20 @@ export function checkBoilingPointInput(input: BoilingPointInput): CalculatorIssu
 			path: 'capGauge.value',
 			message: 'Cap pressure is a gauge pressure above the outside air and cannot be negative.'
 		});
-	} else if (convertPressure(value, unit, 'kPa') > MAX_CAP_GAUGE_KPA) {
+	} else if (!((value * pascalsPerUnit[unit]) / 1000 <= MAX_CAP_GAUGE_KPA)) {
 		issues.push({
 			path: 'capGauge.value',
 			message: `${formatNumber(value, 2)} ${unit} is far above any coolant cap (at most ${MAX_CAP_GAUGE_KPA} kPa, ${formatNumber(convertPressure(MAX_CAP_GAUGE_KPA, 'kPa', 'psi'), 1)} psi): check the unit.`
 		});
 	}
 	if (input.altitudeM !== undefined) {
-		const altitudeM = input.altitudeM;
-		if (!Number.isFinite(altitudeM) || altitudeM < MIN_ALTITUDE_M || altitudeM > MAX_ALTITUDE_M) {
-			issues.push({
-				path: 'altitudeM',
-				message: `Altitude must be between ${formatNumber(MIN_ALTITUDE_M)} and ${formatNumber(MAX_ALTITUDE_M)} m (the standard atmosphere's lowest layer).`
-			});
-		}
+		issues.push(...checkRange(input.altitudeM, inputRanges.altitudeM, 'altitudeM'));
 	}
 	if (input.glycol) {
 		const { percent } = input.glycol;
-		if (!Number.isFinite(percent) || percent < 0 || percent > 100) {
-			issues.push({
-				path: 'glycol.percent',
-				message: 'Glycol concentration must be between 0 and 100 %.'
-			});
-		} else if (percent > MAX_BOILING_GLYCOL_PERCENT) {
+		const rangeIssues = checkRange(percent, inputRanges.glycolPercent, 'glycol.percent');
+		issues.push(...rangeIssues);
+		if (rangeIssues.length === 0 && percent > MAX_BOILING_GLYCOL_PERCENT) {
 			issues.push({
 				path: 'glycol.percent',
 				message: `The boiling estimate is checked only up to ${MAX_BOILING_GLYCOL_PERCENT} % glycol. Above about ${MAX_BOILING_GLYCOL_PERCENT} % the freeze protection gets worse, not better: do not exceed ${MAX_BOILING_GLYCOL_PERCENT} %.`
@@ -186,6 +178,36 @@ export function checkBoilingPointInput(input: BoilingPointInput): CalculatorIssu
 		}
 	}
 	return issues;
+}
+
+function describeMixSteps(
+	glycol: NonNullable<BoilingPointInput['glycol']>,
+	massPercent: number,
+	waterFraction: number,
+	absoluteKPa: number
+): string[] {
+	const steps: string[] = [];
+	if (glycol.basis === 'volume') {
+		steps.push(
+			`${formatNumber(glycol.percent, 1)} % by volume is ${formatNumber(massPercent, 1)} % by mass (densities at 20 °C: glycol ${ETHYLENE_GLYCOL_DENSITY_G_PER_ML} g/mL, water ${WATER_DENSITY_G_PER_ML} g/mL).`
+		);
+	}
+	steps.push(
+		`Water mole fraction: ${formatNumber(waterFraction, 4)}. The mix boils where ${formatNumber(waterFraction, 4)} × Ps(T) = ${formatNumber(absoluteKPa, 2)} kPa, i.e. where water alone would at ${formatNumber(absoluteKPa / waterFraction, 2)} kPa.`
+	);
+	return steps;
+}
+
+function describeBoilingBasis(withGlycol: boolean): string {
+	return [
+		'Water: IAPWS-IF97 region 4 saturation equation (IAPWS R7-97(2012)).',
+		'Outside air: US Standard Atmosphere 1976 (ICAO standard atmosphere) barometric formula, troposphere layer.',
+		withGlycol
+			? "Ethylene glycol mix: Raoult's law on the water mole fraction, glycol vapour pressure neglected."
+			: ''
+	]
+		.filter(Boolean)
+		.join(' ');
 }
 
 /**
@@ -219,24 +241,21 @@ export function boilingPointUnderCap(
 		waterFraction
 	);
 	const openCapC = findBoilingPointC(atmosphericKPa, waterFraction);
+	// Rounded to what the method supports: IF97 is good to 0.01 °C for water, the glycol
+	// estimate to about ±1.5 °C, so a mix is given in whole degrees.
+	const boilDecimals = glycol ? 0 : 2;
+	const rangeDecimals = glycol ? 0 : 1;
 
 	const steps = [
 		`Outside air at ${formatNumber(altitudeM, 0)} m (US Standard Atmosphere 1976 / ICAO): ${formatNumber(atmosphericKPa, 2)} kPa.`,
 		`Cap ${formatNumber(input.capGauge.value, 2)} ${input.capGauge.unit} = ${formatNumber(capGaugeKPa, 2)} kPa gauge, so the system boils at ${formatNumber(atmosphericKPa, 2)} + ${formatNumber(capGaugeKPa, 2)} = ${formatNumber(absoluteKPa, 2)} kPa absolute.`
 	];
 	if (glycol && massPercent !== null) {
-		if (glycol.basis === 'volume') {
-			steps.push(
-				`${formatNumber(glycol.percent, 1)} % by volume is ${formatNumber(massPercent, 1)} % by mass (densities at 20 °C: glycol ${ETHYLENE_GLYCOL_DENSITY_G_PER_ML} g/mL, water ${WATER_DENSITY_G_PER_ML} g/mL).`
-			);
-		}
-		steps.push(
-			`Water mole fraction: ${formatNumber(waterFraction, 4)}. The mix boils where ${formatNumber(waterFraction, 4)} × Ps(T) = ${formatNumber(absoluteKPa, 2)} kPa, i.e. where water alone would at ${formatNumber(absoluteKPa / waterFraction, 2)} kPa.`
-		);
+		steps.push(...describeMixSteps(glycol, massPercent, waterFraction, absoluteKPa));
 	}
 	steps.push(
-		`Boiling point: ${formatNumber(boilingC, 2)} °C (water alone: ${formatNumber(waterBoilingC, 2)} °C).`,
-		`With the cap open (or a cap that no longer holds) the boiling point falls to ${formatNumber(openCapC, 1)} °C.`
+		`Boiling point: ${formatNumber(boilingC, boilDecimals)} °C (water alone: ${formatNumber(waterBoilingC, 2)} °C).`,
+		`With the cap open (or a cap that no longer holds) the boiling point falls to ${formatNumber(openCapC, rangeDecimals)} °C.`
 	);
 
 	const warnings: string[] = [];
@@ -246,22 +265,14 @@ export function boilingPointUnderCap(
 		);
 	}
 
-	const basis = [
-		'Water: IAPWS-IF97 region 4 saturation equation (IAPWS R7-97(2012)).',
-		'Outside air: US Standard Atmosphere 1976 (ICAO standard atmosphere) barometric formula, troposphere layer.',
-		glycol
-			? "Ethylene glycol mix: Raoult's law on the water mole fraction, glycol vapour pressure neglected."
-			: ''
-	]
-		.filter(Boolean)
-		.join(' ');
+	const basis = describeBoilingBasis(glycol !== undefined);
 
 	return {
 		values: {
-			boilingPoint: toQuantity(boilingC, '°C', 2),
+			boilingPoint: toQuantity(boilingC, '°C', boilDecimals),
 			waterBoilingPoint: toQuantity(waterBoilingC, '°C', 2),
-			boilingPointIfCapOpensLow: toQuantity(lowC, '°C', 1),
-			boilingPointIfCapOpensHigh: toQuantity(highC, '°C', 1),
+			boilingPointIfCapOpensLow: toQuantity(lowC, '°C', rangeDecimals),
+			boilingPointIfCapOpensHigh: toQuantity(highC, '°C', rangeDecimals),
 			capGauge: toQuantity(capGaugeKPa, 'kPa', 2),
 			atmosphericPressure: toQuantity(atmosphericKPa, 'kPa', 2),
 			absolutePressure: toQuantity(absoluteKPa, 'kPa', 2),
@@ -269,7 +280,7 @@ export function boilingPointUnderCap(
 			waterMoleFraction: glycol ? toQuantity(waterFraction, 'mol/mol', 4) : null
 		},
 		basis,
-		accuracy: `${glycol ? 'Glycol mix: an estimate good to about ±1.5 °C against published boiling points. ' : 'Water: within about 0.01 °C of the steam tables at this pressure. '}A cap opens within about ±10 % of its rating, which puts the real boiling point between ${formatNumber(lowC, 1)} and ${formatNumber(highC, 1)} °C; a weather front moves the air pressure by a few kPa more.`,
+		accuracy: `${glycol ? 'Glycol mix: an estimate good to about ±1.5 °C against published boiling points. ' : 'Water: within about 0.01 °C of the steam tables at this pressure. '}A cap opens within about ±10 % of its rating, which puts the real boiling point between ${formatNumber(lowC, rangeDecimals)} and ${formatNumber(highC, rangeDecimals)} °C; a weather front moves the air pressure by a few kPa more.`,
 		warnings,
 		cautions: [CAUTION_HOT_CAP, CAUTION_COOLANT_POISON],
 		steps

@@ -1,7 +1,8 @@
 import { CAUTION_COOLANT_POISON, CAUTION_FOLLOW_PROCEDURE, CAUTION_HOT_CAP } from './cautions';
 import { throwIfIssues, type CalculatorIssue } from './errors';
-import { formatNumber } from './format';
-import { toQuantity, type CalculatorResult, type Quantity } from './result';
+import { formatNumber, roundTo } from './format';
+import { checkRange, inputRanges } from './ranges';
+import { toQuantity, type CalculatorResult, type Quantity, type ResultChart } from './result';
 
 /**
  * Partial drain-and-fill: each cycle drains d of the V litres (well mixed after a run) and
@@ -28,16 +29,14 @@ export type DrainFillValues = {
 };
 
 /** The most cycles anyone would do; also keeps a near-zero drain from asking for millions. */
-export const MAX_CYCLES = 100;
+export const MAX_CYCLES = inputRanges.cycles.max;
 
 export function checkDrainFillVolumes(capacityL: number, drainL: number): CalculatorIssue[] {
-	const issues: CalculatorIssue[] = [];
-	if (!Number.isFinite(capacityL) || capacityL <= 0) {
-		issues.push({ path: 'capacityL', message: 'System capacity must be more than 0 L.' });
-	}
-	if (!Number.isFinite(drainL) || drainL < 0) {
-		issues.push({ path: 'drainL', message: 'Drain volume cannot be negative.' });
-	} else if (issues.length === 0 && drainL > capacityL) {
+	const issues = [
+		...checkRange(capacityL, inputRanges.capacityL, 'capacityL'),
+		...checkRange(drainL, inputRanges.drainL, 'drainL')
+	];
+	if (issues.length === 0 && drainL > capacityL) {
 		issues.push({
 			path: 'drainL',
 			message: `Drain volume cannot be larger than the system capacity (${formatNumber(capacityL, 2)} L).`
@@ -46,14 +45,18 @@ export function checkDrainFillVolumes(capacityL: number, drainL: number): Calcul
 	return issues;
 }
 
+/** The cycles a person asks about: at least one (0 cycles renews nothing), at most MAX_CYCLES. */
 export function checkCycles(cycles: number, path = 'cycles'): CalculatorIssue[] {
-	if (!Number.isInteger(cycles) || cycles < 0) {
-		return [{ path, message: 'The number of cycles must be a whole number, 0 or more.' }];
-	}
-	if (cycles > MAX_CYCLES) {
-		return [{ path, message: `Give at most ${MAX_CYCLES} cycles.` }];
-	}
-	return [];
+	return checkRange(cycles, inputRanges.cycles, path);
+}
+
+/**
+ * Cycles needed as a real number: log(1 − target) / log(1 − d/V). log1p keeps the share renewed
+ * per cycle from rounding to nothing when d/V is tiny (1 L of 1e17 L), where the plain logarithm
+ * gives log(1) = 0 and the ratio turns infinite.
+ */
+function exactCycles(renewed: number, targetFraction: number): number {
+	return Math.log1p(-targetFraction) / Math.log1p(-renewed);
 }
 
 export function checkTargetFraction(
@@ -79,11 +82,8 @@ export function checkTargetFraction(
 		];
 	}
 	const renewed = drainL / capacityL;
-	if (
-		targetFraction > 0 &&
-		renewed < 1 &&
-		Math.log(1 - targetFraction) / Math.log(1 - renewed) > MAX_CYCLES
-	) {
+	// Written as "not at most" so that an infinite or undefined ratio is refused too.
+	if (targetFraction > 0 && renewed < 1 && !(exactCycles(renewed, targetFraction) <= MAX_CYCLES)) {
 		return [
 			{
 				path,
@@ -94,10 +94,15 @@ export function checkTargetFraction(
 	return [];
 }
 
-/** Fraction (0–1) of fresh coolant after n drain-and-fill cycles of d litres from V litres. */
+/**
+ * Fraction (0–1) of fresh coolant after n drain-and-fill cycles of d litres from V litres. Zero
+ * cycles is allowed here (the arithmetic of "before the first cycle"); a person's input is not.
+ */
 export function findFreshFraction(capacityL: number, drainL: number, cycles: number): number {
-	throwIfIssues([...checkDrainFillVolumes(capacityL, drainL), ...checkCycles(cycles)]);
-	return 1 - (1 - drainL / capacityL) ** cycles;
+	const cycleIssues = cycles === 0 ? [] : checkCycles(cycles);
+	throwIfIssues([...checkDrainFillVolumes(capacityL, drainL), ...cycleIssues]);
+	if (cycles === 0) return 0;
+	return -Math.expm1(cycles * Math.log1p(-drainL / capacityL));
 }
 
 /** Fewest whole cycles that reach the target fraction (0–1) of fresh coolant. */
@@ -110,23 +115,33 @@ export function findCyclesNeeded(
 	throwIfIssues(checkTargetFraction(capacityL, drainL, targetFraction));
 	if (targetFraction === 0) return 0;
 	if (drainL === capacityL) return 1;
-	const exact = Math.log(1 - targetFraction) / Math.log(1 - drainL / capacityL);
+	const fresh = (n: number) => findFreshFraction(capacityL, drainL, n);
+	const exact = exactCycles(drainL / capacityL, targetFraction);
 	// A ratio such as 2.0000000001 from rounding must not cost a whole extra cycle, and the
-	// answer must truly reach the target, so settle it by evaluating the formula itself.
-	let cycles = Math.max(1, Math.ceil(exact - 1e-9));
-	while (cycles > 1 && 1 - (1 - drainL / capacityL) ** (cycles - 1) >= targetFraction - 1e-12)
+	// answer must truly reach the target, so settle it by evaluating the formula itself. The
+	// check above keeps `exact` at most MAX_CYCLES, so a correction is one step; two are allowed.
+	let cycles = Math.min(MAX_CYCLES, Math.max(1, Math.ceil(exact - 1e-9)));
+	for (let step = 0; step < 2 && cycles > 1 && fresh(cycles - 1) >= targetFraction - 1e-12; step++)
 		cycles--;
-	while (1 - (1 - drainL / capacityL) ** cycles < targetFraction - 1e-12) cycles++;
+	for (
+		let step = 0;
+		step < 2 && cycles < MAX_CYCLES && fresh(cycles) < targetFraction - 1e-12;
+		step++
+	)
+		cycles++;
 	return cycles;
 }
 
 export function checkDrainFillInput(input: DrainFillInput): CalculatorIssue[] {
 	const issues = checkDrainFillVolumes(input.capacityL, input.drainL);
 	if (input.cycles !== undefined) issues.push(...checkCycles(input.cycles));
-	if (issues.length === 0 && input.targetFreshPercent !== undefined) {
-		issues.push(
-			...checkTargetFraction(input.capacityL, input.drainL, input.targetFreshPercent / 100)
-		);
+	const target = input.targetFreshPercent;
+	if (target !== undefined) {
+		const targetIssues = checkRange(target, inputRanges.targetFreshPercent, 'targetFreshPercent');
+		issues.push(...targetIssues);
+		if (issues.length === 0) {
+			issues.push(...checkTargetFraction(input.capacityL, input.drainL, target / 100));
+		}
 	}
 	return issues;
 }
@@ -179,6 +194,28 @@ export function calculateDrainFill(input: DrainFillInput): CalculatorResult<Drai
 			'Only as good as the drained volume: measure what actually comes out. Coolant that does not circulate between cycles (heater valve closed, thermostat shut) lowers the real figure.',
 		warnings: [],
 		cautions: [CAUTION_HOT_CAP, CAUTION_COOLANT_POISON, CAUTION_FOLLOW_PROCEDURE],
+		charts: totalCycles > 0 ? [describeFreshChart(input, totalCycles)] : [],
 		steps
+	};
+}
+
+/** One bar per cycle (at most MAX_CYCLES), from the same formula as the answer. */
+function describeFreshChart(input: DrainFillInput, totalCycles: number): ResultChart {
+	const points = [];
+	for (let cycle = 1; cycle <= Math.min(totalCycles, MAX_CYCLES); cycle++) {
+		const fresh = findFreshFraction(input.capacityL, input.drainL, cycle) * 100;
+		points.push({ x: cycle, y: roundTo(fresh, 1) });
+	}
+	return {
+		id: 'fresh-share',
+		kind: 'bars',
+		title: 'Fresh coolant after each cycle',
+		x: { label: 'Drain-and-fill cycle', unit: '' },
+		y: { label: 'Fresh coolant', unit: '%' },
+		points,
+		target:
+			input.targetFreshPercent === undefined
+				? undefined
+				: { label: 'Target', y: roundTo(input.targetFreshPercent, 1) }
 	};
 }

@@ -25,3 +25,25 @@ export function roundTo(value: number, decimals: number): number {
 		: Math.round(value * 10 ** decimals) / 10 ** decimals;
 	return Object.is(result, -0) ? 0 : result;
 }
+
+/**
+ * A converted figure to as many significant digits as the person gave (at least 4, at most 12):
+ * "110 kPa" reads 15.95 psi, not 15.9541511503 psi.
+ */
+export function formatSignificant(value: number, digits: number): string {
+	const kept = Math.min(12, Math.max(4, digits));
+	const rounded = Number(value.toPrecision(kept));
+	return formatNumber(
+		rounded,
+		Math.max(0, kept - 1 - Math.floor(Math.log10(Math.abs(rounded) || 1)))
+	);
+}
+
+/** Significant digits in a number as typed ("110" 3, "0.050" 2, "1.50" 3). */
+export function countSignificantDigits(text: string): number {
+	const digits = text
+		.replace(/[eE].*$/, '')
+		.replace(/[^0-9]/g, '')
+		.replace(/^0+/, '');
+	return Math.max(1, digits.length);
+}

@@ -1,8 +1,15 @@
 import { CAUTION_COOLANT_POISON, CAUTION_FOLLOW_PROCEDURE, CAUTION_HOT_CAP } from './cautions';
 import { CalculatorError, throwIfIssues, type CalculatorIssue } from './errors';
-import { formatNumber } from './format';
+import { formatNumber, roundTo } from './format';
 import { createMonotoneCubic, type MonotoneCubic } from './pchip';
-import { toQuantity, type CalculatorResult, type Quantity } from './result';
+import { checkRange, inputRanges } from './ranges';
+import {
+	toQuantity,
+	type CalculatorResult,
+	type ChartPoint,
+	type Quantity,
+	type ResultChart
+} from './result';
 
 export type GlycolType = 'EG' | 'PG';
 export type ConcentrationBasis = 'mass' | 'volume';
@@ -205,11 +212,13 @@ export function checkFreezePoint(
 	path = 'freezePointC'
 ): CalculatorIssue[] {
 	if (!Number.isFinite(freezePointC)) return [{ path, message: 'Freeze point must be a number.' }];
-	if (freezePointC > 0) {
+	if (freezePointC > 0 && freezePointC <= inputRanges.freezePointC.max) {
 		return [
 			{ path, message: 'A freeze point above 0 °C is not possible: water alone freezes at 0 °C.' }
 		];
 	}
+	const physical = checkRange(freezePointC, inputRanges.freezePointC, path);
+	if (physical.length > 0) return physical;
 	const lowest = lowestFreezePointC(table);
 	if (freezePointC < lowest) {
 		const max = tableMaxPercent(table);
@@ -257,6 +266,38 @@ export function locateInTable(
 	return {
 		interpolated: true,
 		description: `Interpolated (monotone cubic, PCHIP) between the table points ${a.percent} % (${formatNumber(a.freezePointC, 2)} °C) and ${b.percent} % (${formatNumber(b.freezePointC, 2)} °C).`
+	};
+}
+
+/**
+ * The table's freeze-point curve every 1 % (the same interpolation the answer uses), its printed
+ * points, and this answer's marks; marks outside the table are left off the chart.
+ */
+export function describeFreezeChart(
+	table: FreezeTable,
+	marks: (ChartPoint & { label: string })[]
+): ResultChart {
+	const curve = findCurve(table);
+	const max = tableMaxPercent(table);
+	const points: ChartPoint[] = [];
+	for (let percent = tableMinPercent(table); percent <= max; percent++) {
+		points.push({ x: percent, y: roundTo(curve.evaluate(percent), table.freezePointDecimals) });
+	}
+	return {
+		id: 'freeze-curve',
+		kind: 'line',
+		title: `Freeze point against glycol: ${table.title}`,
+		x: { label: 'Glycol', unit: concentrationUnit(table.basis) },
+		y: { label: 'Freezes at', unit: '°C' },
+		points,
+		tablePoints: table.points.map((p) => ({ x: p.percent, y: p.freezePointC })),
+		marks: marks
+			.filter((m) => m.x >= tableMinPercent(table) && m.x <= max)
+			.map((m) => ({
+				label: m.label,
+				x: roundTo(m.x, 1),
+				y: roundTo(m.y, table.freezePointDecimals)
+			}))
 	};
 }
 
@@ -322,6 +363,9 @@ export function calculateFreezePoint(input: FreezePointInput): CalculatorResult<
 		accuracy: describeAccuracy(table),
 		warnings: warnAboutStrength(input.percent),
 		cautions: [CAUTION_COOLANT_POISON],
+		charts: [
+			describeFreezeChart(table, [{ label: 'This mix', x: input.percent, y: freezePointC }])
+		],
 		steps: [
 			`Table: ${table.title}.`,
 			position.description,
@@ -375,6 +419,7 @@ export function calculateGlycolForFreezePoint(
 		accuracy: describeAccuracy(table),
 		warnings: warnAboutStrength(percent),
 		cautions: [CAUTION_COOLANT_POISON],
+		charts: [describeFreezeChart(table, [{ label: 'Needed', x: percent, y: input.freezePointC }])],
 		steps: [
 			`Table: ${table.title}.`,
 			position.description,
@@ -416,9 +461,7 @@ const MIX_TOLERANCE_PERCENT = 0.05;
 export function checkAdjustMixInput(input: AdjustMixInput): CalculatorIssue[] {
 	const issues: CalculatorIssue[] = [];
 	const table = findFreezeTable(input.glycol, 'volume');
-	if (!Number.isFinite(input.capacityL) || input.capacityL <= 0) {
-		issues.push({ path: 'capacityL', message: 'System capacity must be more than 0 L.' });
-	}
+	issues.push(...checkRange(input.capacityL, inputRanges.capacityL, 'capacityL'));
 	const hasPercent = input.currentPercent !== undefined;
 	const hasFreezePoint = input.currentFreezePointC !== undefined;
 	if (hasPercent && hasFreezePoint) {
@@ -433,13 +476,9 @@ export function checkAdjustMixInput(input: AdjustMixInput): CalculatorIssue[] {
 			message: 'Give the current mix: its measured freeze point or its concentration.'
 		});
 	} else if (hasPercent) {
-		const percent = input.currentPercent as number;
-		if (!Number.isFinite(percent) || percent < 0 || percent > 100) {
-			issues.push({
-				path: 'currentPercent',
-				message: 'Glycol concentration must be between 0 and 100 %.'
-			});
-		}
+		issues.push(
+			...checkRange(input.currentPercent as number, inputRanges.glycolPercent, 'currentPercent')
+		);
 	} else {
 		issues.push(
 			...checkFreezePoint(table, input.currentFreezePointC as number, 'currentFreezePointC')
@@ -448,7 +487,7 @@ export function checkAdjustMixInput(input: AdjustMixInput): CalculatorIssue[] {
 	const targetIssues = checkTargetFreezePoint(table, input.targetFreezePointC);
 	issues.push(...targetIssues);
 	const refillPercent = input.refillPercent ?? 100;
-	if (!Number.isFinite(refillPercent) || refillPercent <= 0 || refillPercent > 100) {
+	if (checkRange(refillPercent, inputRanges.refillPercent, 'refillPercent').length > 0) {
 		issues.push({
 			path: 'refillPercent',
 			message: 'The refill must contain more than 0 % and at most 100 % glycol.'
@@ -474,7 +513,7 @@ function checkTargetFreezePoint(table: FreezeTable, targetFreezePointC: number):
 	if (!Number.isFinite(targetFreezePointC)) {
 		return [{ path, message: 'Target freeze point must be a number.' }];
 	}
-	if (targetFreezePointC > 0) {
+	if (targetFreezePointC > 0 && targetFreezePointC <= inputRanges.freezePointC.max) {
 		return [
 			{
 				path,
@@ -482,6 +521,8 @@ function checkTargetFreezePoint(table: FreezeTable, targetFreezePointC: number):
 			}
 		];
 	}
+	const physical = checkRange(targetFreezePointC, inputRanges.freezePointC, path);
+	if (physical.length > 0) return physical;
 	const lowest = lowestFreezePointC(table);
 	if (targetFreezePointC < lowest) {
 		const max = tableMaxPercent(table);
@@ -497,6 +538,59 @@ function checkTargetFreezePoint(table: FreezeTable, targetFreezePointC: number):
 		];
 	}
 	return [];
+}
+
+type MixFigures = {
+	capacityL: number;
+	currentPercent: number;
+	targetPercent: number;
+	refillPercent: number;
+};
+
+/** x = V (ct − c0) / (r − c0) to strengthen with the refill; with water (r = 0) to weaken. */
+function findDrain(
+	{ capacityL, currentPercent, targetPercent, refillPercent }: MixFigures,
+	steps: string[]
+): { drainL: number; addFluid: AdjustMixFluid } {
+	const f1 = (n: number) => formatNumber(n, 1);
+	if (Math.abs(targetPercent - currentPercent) <= MIX_TOLERANCE_PERCENT) {
+		steps.push('The mix is already at the target: nothing to drain or add.');
+		return { drainL: 0, addFluid: 'none' };
+	}
+	if (targetPercent > currentPercent) {
+		const drainL =
+			(capacityL * (targetPercent - currentPercent)) / (refillPercent - currentPercent);
+		steps.push(
+			`Drain = ${formatNumber(capacityL, 2)} L × (${f1(targetPercent)} − ${f1(currentPercent)}) / (${f1(refillPercent)} − ${f1(currentPercent)}) = ${formatNumber(drainL, 2)} L.`
+		);
+		return { drainL, addFluid: refillPercent >= 100 ? 'concentrate' : 'premix' };
+	}
+	const drainL = (capacityL * (currentPercent - targetPercent)) / currentPercent;
+	steps.push(
+		`Drain = ${formatNumber(capacityL, 2)} L × (${f1(currentPercent)} − ${f1(targetPercent)}) / ${f1(currentPercent)} = ${formatNumber(drainL, 2)} L.`
+	);
+	return { drainL, addFluid: 'water' };
+}
+
+/** The work at the vehicle, step by step, once the volume is known. */
+function describeWork(
+	addFluid: Exclude<AdjustMixFluid, 'none'>,
+	drainL: number,
+	refillStrength: string,
+	glycol: string
+): string[] {
+	const fluidName =
+		addFluid === 'water'
+			? 'clean water (distilled or deionised where the coolant maker asks for it)'
+			: addFluid === 'concentrate'
+				? `${glycol} concentrate`
+				: `${refillStrength} premixed coolant`;
+	return [
+		`With the engine cold and the cap released, drain ${formatNumber(drainL, 1)} L of coolant into a clean container.`,
+		`Add ${formatNumber(drainL, 1)} L of ${fluidName}, then top up to the cold mark with the same fluid if the level is short.`,
+		'Run the engine with the heater on full until the coolant has circulated, bleed any air, and let it cool.',
+		'Recheck the freeze point with a refractometer or hydrometer; repeat with a smaller amount if it is not yet on target.'
+	];
 }
 
 /**
@@ -529,27 +623,18 @@ export function adjustMix(input: AdjustMixInput): CalculatorResult<AdjustMixValu
 		`Protection to ${formatNumber(input.targetFreezePointC, 1)} °C needs about ${formatNumber(targetPercent, 1)} % ${glycol} by volume.`
 	);
 
-	let drainL = 0;
-	let addFluid: AdjustMixFluid = 'none';
-	if (Math.abs(targetPercent - currentPercent) <= MIX_TOLERANCE_PERCENT) {
-		steps.push('The mix is already at the target: nothing to drain or add.');
-	} else if (targetPercent > currentPercent) {
-		drainL = (capacityL * (targetPercent - currentPercent)) / (refillPercent - currentPercent);
-		addFluid = refillPercent >= 100 ? 'concentrate' : 'premix';
-		steps.push(
-			`Drain = ${formatNumber(capacityL, 2)} L × (${formatNumber(targetPercent, 1)} − ${formatNumber(currentPercent, 1)}) / (${formatNumber(refillPercent, 1)} − ${formatNumber(currentPercent, 1)}) = ${formatNumber(drainL, 2)} L.`
+	const { drainL, addFluid } = findDrain(
+		{ capacityL, currentPercent, targetPercent, refillPercent },
+		steps
+	);
+	if (
+		addFluid === 'water' &&
+		currentFreezePointC !== null &&
+		currentFreezePointC <= input.targetFreezePointC
+	) {
+		warnings.push(
+			'The current mix already protects to the target or lower; dilute only to bring it back to the specified strength.'
 		);
-	} else {
-		drainL = (capacityL * (currentPercent - targetPercent)) / currentPercent;
-		addFluid = 'water';
-		steps.push(
-			`Drain = ${formatNumber(capacityL, 2)} L × (${formatNumber(currentPercent, 1)} − ${formatNumber(targetPercent, 1)}) / ${formatNumber(currentPercent, 1)} = ${formatNumber(drainL, 2)} L.`
-		);
-		if (currentFreezePointC !== null && currentFreezePointC <= input.targetFreezePointC) {
-			warnings.push(
-				'The current mix already protects to the target or lower; dilute only to bring it back to the specified strength.'
-			);
-		}
 	}
 	if (currentPercent > GLYCOL_LIMIT_PERCENT) {
 		warnings.push(
@@ -559,18 +644,7 @@ export function adjustMix(input: AdjustMixInput): CalculatorResult<AdjustMixValu
 	warnings.push(...warnAboutStrength(targetPercent));
 
 	if (addFluid !== 'none') {
-		const fluidName =
-			addFluid === 'water'
-				? 'clean water (distilled or deionised where the coolant maker asks for it)'
-				: addFluid === 'concentrate'
-					? `${glycol} concentrate`
-					: `${formatNumber(refillPercent, 1)} % premixed coolant`;
-		steps.push(
-			`With the engine cold and the cap released, drain ${formatNumber(drainL, 1)} L of coolant into a clean container.`,
-			`Add ${formatNumber(drainL, 1)} L of ${fluidName}, then top up to the cold mark with the same fluid if the level is short.`,
-			'Run the engine with the heater on full until the coolant has circulated, bleed any air, and let it cool.',
-			'Recheck the freeze point with a refractometer or hydrometer; repeat with a smaller amount if it is not yet on target.'
-		);
+		steps.push(...describeWork(addFluid, drainL, `${formatNumber(refillPercent, 1)} %`, glycol));
 	}
 
 	return {
@@ -591,6 +665,14 @@ export function adjustMix(input: AdjustMixInput): CalculatorResult<AdjustMixValu
 			'Assumes the drained coolant has the average strength of the whole system and that volumes simply add (they shrink by about 1 %). Coolant left in the block and heater mixes in only after it circulates, so always recheck.',
 		warnings,
 		cautions: [CAUTION_HOT_CAP, CAUTION_COOLANT_POISON, CAUTION_FOLLOW_PROCEDURE],
+		charts: [
+			describeFreezeChart(table, [
+				...(currentFreezePointC === null
+					? []
+					: [{ label: 'Now', x: currentPercent, y: currentFreezePointC }]),
+				{ label: 'Target', x: targetPercent, y: input.targetFreezePointC }
+			])
+		],
 		steps
 	};
 }

@@ -25,3 +25,4 @@ export {
 	serviceIntervalInputSchema
 } from './schemas';
 export type { CalculatorEntry, CalculatorName } from './schemas';
+export * from './ranges';

@@ -26,6 +26,30 @@ export interface CalculatorResult<
 	cautions: string[];
 	/** The working, in order, in words a technician can follow or repeat by hand. */
 	steps?: string[];
+	/** The answer drawn: the curve or bars it comes from, in the result's own numbers. */
+	charts?: ResultChart[];
+}
+
+export interface ChartPoint {
+	x: number;
+	y: number;
+}
+
+/** A chart a client can draw as it is, with a table of the same numbers beside it. */
+export interface ResultChart {
+	id: string;
+	kind: 'line' | 'bars';
+	title: string;
+	x: { label: string; unit: string };
+	y: { label: string; unit: string };
+	/** The curve (line) or one bar per x (bars). */
+	points: ChartPoint[];
+	/** Points printed in the source table, which the curve passes through. */
+	tablePoints?: ChartPoint[];
+	/** This answer's own points on the chart, such as "This mix". */
+	marks?: (ChartPoint & { label: string })[];
+	/** A level to compare with, drawn as a line across, such as a target. */
+	target?: { label: string; y: number };
 }
 
 /** A quantity rounded to the resolution its source supports (none when `decimals` is left out). */

@@ -10,6 +10,14 @@ import {
 	checkFreezePointInput,
 	checkGlycolForFreezePointInput
 } from './freeze-point';
+import {
+	describeNotWhole,
+	describeTooHigh,
+	describeTooLow,
+	inputRanges,
+	type InputRange,
+	type RangeName
+} from './ranges';
 import type { CalculatorResult } from './result';
 import { calculateServiceInterval, checkServiceIntervalInput } from './service-interval';
 import { calculateConversion, checkConversionInput, pressureUnits } from './units';
@@ -28,6 +36,20 @@ function requiredNumber(label: string) {
 		error: (issue) =>
 			issue.input === undefined ? `${label} is required.` : `${label} must be a number.`
 	});
+}
+
+/**
+ * A number with its physical range from ranges.ts: the JSON Schema then shows the bounds, and the
+ * messages are the ones the calculator itself gives for a value out of range.
+ */
+function rangedNumber(name: RangeName, label: string = inputRanges[name].label) {
+	const range: InputRange = inputRanges[name];
+	const base = requiredNumber(label);
+	const low = range.minExclusive
+		? base.gt(range.min, describeTooLow(range))
+		: base.gte(range.min, describeTooLow(range));
+	const bounded = low.lte(range.max, describeTooHigh(range));
+	return range.integer ? bounded.int(describeNotWhole(range)) : bounded;
 }
 
 function requiredString(label: string) {
@@ -74,29 +96,29 @@ export const conversionInputSchema = strictObject({
 export const freezePointInputSchema = strictObject({
 	glycol: glycolSchema,
 	basis: basisSchema,
-	percent: requiredNumber('Glycol concentration')
+	percent: rangedNumber('glycolPercent')
 }).superRefine((input, ctx) => addIssues(ctx, checkFreezePointInput(input)));
 
 export const glycolForFreezePointInputSchema = strictObject({
 	glycol: glycolSchema,
 	basis: basisSchema,
-	freezePointC: requiredNumber('Freeze point')
+	freezePointC: rangedNumber('freezePointC')
 }).superRefine((input, ctx) => addIssues(ctx, checkGlycolForFreezePointInput(input)));
 
 export const adjustMixInputSchema = strictObject({
 	glycol: glycolSchema,
-	capacityL: requiredNumber('System capacity'),
-	currentPercent: requiredNumber('Current concentration').optional(),
-	currentFreezePointC: requiredNumber('Measured freeze point').optional(),
-	targetFreezePointC: requiredNumber('Target freeze point'),
-	refillPercent: requiredNumber('Refill strength').optional()
+	capacityL: rangedNumber('capacityL'),
+	currentPercent: rangedNumber('glycolPercent').optional(),
+	currentFreezePointC: rangedNumber('freezePointC', 'Measured freeze point').optional(),
+	targetFreezePointC: rangedNumber('freezePointC', 'Target freeze point'),
+	refillPercent: rangedNumber('refillPercent').optional()
 }).superRefine((input, ctx) => addIssues(ctx, checkAdjustMixInput(input)));
 
 export const drainFillInputSchema = strictObject({
-	capacityL: requiredNumber('System capacity'),
-	drainL: requiredNumber('Drain volume'),
-	cycles: requiredNumber('Number of cycles').optional(),
-	targetFreshPercent: requiredNumber('Target share of fresh coolant').optional()
+	capacityL: rangedNumber('capacityL'),
+	drainL: rangedNumber('drainL'),
+	cycles: rangedNumber('cycles').optional(),
+	targetFreshPercent: rangedNumber('targetFreshPercent').optional()
 }).superRefine((input, ctx) => addIssues(ctx, checkDrainFillInput(input)));
 
 export const boilingPointInputSchema = strictObject({
@@ -106,12 +128,12 @@ export const boilingPointInputSchema = strictObject({
 			error: `Cap pressure unit must be one of: ${pressureUnits.join(', ')}.`
 		})
 	}),
-	altitudeM: requiredNumber('Altitude').optional(),
+	altitudeM: rangedNumber('altitudeM').optional(),
 	glycol: strictObject({
 		type: z.literal('EG', {
 			error: 'The boiling estimate covers ethylene glycol ("EG") mixes only.'
 		}),
-		percent: requiredNumber('Glycol concentration'),
+		percent: rangedNumber('glycolPercent'),
 		basis: basisSchema
 	}).optional()
 }).superRefine((input, ctx) => addIssues(ctx, checkBoilingPointInput(input)));
@@ -126,7 +148,7 @@ export const serviceIntervalInputSchema = strictObject({
 			strictObject({
 				kind: z.literal('changed'),
 				date: isoDate('Date of the last change'),
-				odometerKm: requiredNumber('Odometer at the last change')
+				odometerKm: rangedNumber('odometerKm', 'The odometer at the last change')
 			}),
 			strictObject({
 				kind: z.literal('never'),
@@ -139,18 +161,34 @@ export const serviceIntervalInputSchema = strictObject({
 		}
 	),
 	currentDate: isoDate("Today's date"),
-	currentOdometerKm: requiredNumber('Current odometer'),
-	averageKmPerDay: requiredNumber('Average distance per day').optional(),
+	currentOdometerKm: rangedNumber('odometerKm', 'The current odometer reading'),
+	averageKmPerDay: rangedNumber('averageKmPerDay').optional(),
 	settings: strictObject({
-		firstChangeKm: requiredNumber('First change distance').optional(),
-		thenEveryKm: requiredNumber('Change interval').optional(),
-		everyMonths: requiredNumber('Time interval').optional(),
-		dueSoonDays: requiredNumber('Due-soon days').optional(),
-		dueSoonKm: requiredNumber('Due-soon distance').optional()
+		firstChangeKm: rangedNumber('firstChangeKm').optional(),
+		thenEveryKm: rangedNumber('thenEveryKm').optional(),
+		everyMonths: rangedNumber('everyMonths').optional(),
+		dueSoonDays: rangedNumber('dueSoonDays').optional(),
+		dueSoonKm: rangedNumber('dueSoonKm').optional()
 	}).optional()
 }).superRefine((input, ctx) => addIssues(ctx, checkServiceIntervalInput(input)));
 
 export const quantitySchema = z.object({ value: z.number(), unit: z.string() });
+
+const chartPointSchema = z.object({ x: z.number(), y: z.number() });
+const chartAxisSchema = z.object({ label: z.string(), unit: z.string() });
+
+/** A chart of the answer, in the result's own numbers (see ResultChart). */
+export const resultChartSchema = z.object({
+	id: z.string(),
+	kind: z.enum(['line', 'bars']),
+	title: z.string(),
+	x: chartAxisSchema,
+	y: chartAxisSchema,
+	points: z.array(chartPointSchema),
+	tablePoints: z.array(chartPointSchema).optional(),
+	marks: z.array(chartPointSchema.extend({ label: z.string() })).optional(),
+	target: z.object({ label: z.string(), y: z.number() }).optional()
+});
 
 /** The one result shape every calculator returns (for the OpenAPI document and for clients). */
 export const calculatorResultSchema = z.object({
@@ -159,17 +197,24 @@ export const calculatorResultSchema = z.object({
 	accuracy: z.string().optional(),
 	warnings: z.array(z.string()),
 	cautions: z.array(z.string()),
-	steps: z.array(z.string()).optional()
+	steps: z.array(z.string()).optional(),
+	charts: z.array(resultChartSchema).optional()
 });
 
 /** Turns a schema failure into the calculators' one error type, with every issue at its field. */
 export function parseCalculatorInput<S extends z.ZodType>(schema: S, input: unknown): z.output<S> {
 	const parsed = schema.safeParse(input);
 	if (parsed.success) return parsed.data;
-	const issues = parsed.error.issues.map((issue) => ({
-		path: issue.path.map(String).join('.'),
-		message: issue.message
-	}));
+	// The field's range and the calculator's own check can both report a value out of range.
+	const seen = new Set<string>();
+	const issues = parsed.error.issues
+		.map((issue) => ({ path: issue.path.map(String).join('.'), message: issue.message }))
+		.filter((issue) => {
+			const key = `${issue.path}\n${issue.message}`;
+			if (seen.has(key)) return false;
+			seen.add(key);
+			return true;
+		});
 	const first = issues[0];
 	throw new CalculatorError(first.message, first.path || undefined, issues);
 }

@@ -1,6 +1,7 @@
 import { CAUTION_COOLANT_POISON, CAUTION_FOLLOW_PROCEDURE } from './cautions';
 import { throwIfIssues, type CalculatorIssue } from './errors';
 import { formatNumber } from './format';
+import { checkRange, DATE_RANGE, inputRanges } from './ranges';
 import { toQuantity, type CalculatorResult, type Quantity } from './result';
 
 /**
@@ -55,7 +56,7 @@ export type ServiceIntervalValues = {
 };
 
 /** Beyond this the figure is a typing slip, not a vehicle (24 h a day at over 80 km/h). */
-export const MAX_KM_PER_DAY = 2_000;
+export const MAX_KM_PER_DAY = inputRanges.averageKmPerDay.max;
 /** A history shorter than this says little about how far the vehicle goes in a day. */
 const MIN_DAYS_FOR_ESTIMATE = 30;
 const MS_PER_DAY = 86_400_000;
@@ -94,21 +95,21 @@ function resolveSettings(partial: Partial<IntervalSettings> | undefined): Interv
 	return { ...DEFAULT_INTERVAL_SETTINGS, ...partial };
 }
 
-function checkWholeNumber(
-	value: number,
-	path: string,
-	label: string,
-	min: number,
-	max: number,
-	unit: string
-): CalculatorIssue[] {
-	if (!Number.isInteger(value) || value < min || value > max) {
-		return [
-			{
-				path,
-				message: `${label} must be a whole number from ${formatNumber(min)} to ${formatNumber(max)} ${unit}.`
-			}
-		];
+const settingNames = [
+	'firstChangeKm',
+	'thenEveryKm',
+	'everyMonths',
+	'dueSoonDays',
+	'dueSoonKm'
+] as const satisfies readonly (keyof IntervalSettings)[];
+
+/** Reads a date the calculator can count with: a real calendar day within DATE_RANGE. */
+function checkDate(text: string, path: string, what: string): CalculatorIssue[] {
+	if (parseIsoDate(text) === null) {
+		return [{ path, message: `${what} must be a real date written as YYYY-MM-DD.` }];
+	}
+	if (text < DATE_RANGE.min || text > DATE_RANGE.max) {
+		return [{ path, message: `${what} must be between ${DATE_RANGE.min} and ${DATE_RANGE.max}.` }];
 	}
 	return [];
 }
@@ -116,73 +117,30 @@ function checkWholeNumber(
 export function checkServiceIntervalInput(input: ServiceIntervalInput): CalculatorIssue[] {
 	const issues: CalculatorIssue[] = [];
 	const settings = resolveSettings(input.settings);
+	for (const name of settingNames) {
+		issues.push(...checkRange(settings[name], inputRanges[name], `settings.${name}`));
+	}
+	const todayIssues = checkDate(input.currentDate, 'currentDate', "Today's date");
+	issues.push(...todayIssues);
+	const today = todayIssues.length === 0 ? parseIsoDate(input.currentDate) : null;
 	issues.push(
-		...checkWholeNumber(
-			settings.firstChangeKm,
-			'settings.firstChangeKm',
-			'First change distance',
-			1_000,
-			2_000_000,
-			'km'
-		),
-		...checkWholeNumber(
-			settings.thenEveryKm,
-			'settings.thenEveryKm',
-			'Change interval',
-			1_000,
-			2_000_000,
-			'km'
-		),
-		...checkWholeNumber(
-			settings.everyMonths,
-			'settings.everyMonths',
-			'Time interval',
-			1,
-			240,
-			'months'
-		),
-		...checkWholeNumber(
-			settings.dueSoonDays,
-			'settings.dueSoonDays',
-			'Due-soon warning',
-			0,
-			365,
-			'days'
-		),
-		...checkWholeNumber(
-			settings.dueSoonKm,
-			'settings.dueSoonKm',
-			'Due-soon warning',
-			0,
-			100_000,
-			'km'
+		...checkRange(
+			input.currentOdometerKm,
+			odometerRange('The current odometer reading'),
+			'currentOdometerKm'
 		)
 	);
-	const today = parseIsoDate(input.currentDate);
-	if (today === null) {
-		issues.push({
-			path: 'currentDate',
-			message: "Today's date must be a real date written as YYYY-MM-DD."
-		});
-	}
-	if (!Number.isFinite(input.currentOdometerKm) || input.currentOdometerKm < 0) {
-		issues.push({
-			path: 'currentOdometerKm',
-			message: 'The current odometer reading cannot be negative.'
-		});
-	}
 	const last = input.lastChange;
 	const startPath = last.kind === 'changed' ? 'lastChange.date' : 'lastChange.inServiceDate';
-	const start = parseIsoDate(last.kind === 'changed' ? last.date : last.inServiceDate);
-	if (start === null) {
-		issues.push({
-			path: startPath,
-			message:
-				last.kind === 'changed'
-					? 'The date of the last coolant change must be a real date written as YYYY-MM-DD.'
-					: 'The in-service date must be a real date written as YYYY-MM-DD.'
-		});
-	} else if (today !== null && start > today) {
+	const startText = last.kind === 'changed' ? last.date : last.inServiceDate;
+	const startIssues = checkDate(
+		startText,
+		startPath,
+		last.kind === 'changed' ? 'The date of the last coolant change' : 'The in-service date'
+	);
+	issues.push(...startIssues);
+	const start = startIssues.length === 0 ? parseIsoDate(startText) : null;
+	if (start !== null && today !== null && start > today) {
 		issues.push({
 			path: startPath,
 			message:
@@ -192,12 +150,14 @@ export function checkServiceIntervalInput(input: ServiceIntervalInput): Calculat
 		});
 	}
 	if (last.kind === 'changed') {
-		if (!Number.isFinite(last.odometerKm) || last.odometerKm < 0) {
-			issues.push({
-				path: 'lastChange.odometerKm',
-				message: 'The odometer at the last change cannot be negative.'
-			});
-		} else if (
+		const lastIssues = checkRange(
+			last.odometerKm,
+			odometerRange('The odometer at the last change'),
+			'lastChange.odometerKm'
+		);
+		issues.push(...lastIssues);
+		if (
+			lastIssues.length === 0 &&
 			Number.isFinite(input.currentOdometerKm) &&
 			input.currentOdometerKm < last.odometerKm
 		) {
@@ -208,22 +168,50 @@ export function checkServiceIntervalInput(input: ServiceIntervalInput): Calculat
 		}
 	}
 	if (input.averageKmPerDay !== undefined) {
-		const average = input.averageKmPerDay;
-		if (!Number.isFinite(average) || average < 0 || average > MAX_KM_PER_DAY) {
-			issues.push({
-				path: 'averageKmPerDay',
-				message: `Average distance must be between 0 and ${formatNumber(MAX_KM_PER_DAY)} km a day.`
-			});
-		}
+		issues.push(
+			...checkRange(input.averageKmPerDay, inputRanges.averageKmPerDay, 'averageKmPerDay')
+		);
+	} else if (issues.length === 0 && today !== null && start !== null) {
+		issues.push(...checkEstimatedAverage(input, today - start));
 	}
 	return issues;
 }
 
-export function calculateServiceInterval(
-	input: ServiceIntervalInput
-): CalculatorResult<ServiceIntervalValues> {
-	throwIfIssues(checkServiceIntervalInput(input));
-	const settings = resolveSettings(input.settings);
+function odometerRange(label: string) {
+	return { ...inputRanges.odometerKm, label };
+}
+
+/** Readings that imply more than MAX_KM_PER_DAY are a typing slip, not a vehicle's use. */
+function checkEstimatedAverage(
+	input: ServiceIntervalInput,
+	elapsedDays: number
+): CalculatorIssue[] {
+	if (elapsedDays < MIN_DAYS_FOR_ESTIMATE) return [];
+	const startKm = input.lastChange.kind === 'changed' ? input.lastChange.odometerKm : 0;
+	const average = (input.currentOdometerKm - startKm) / elapsedDays;
+	if (average <= MAX_KM_PER_DAY) return [];
+	return [
+		{
+			path: 'currentOdometerKm',
+			message: `These readings mean ${formatNumber(average, 0)} km a day, more than the ${formatNumber(MAX_KM_PER_DAY)} km a vehicle can cover: check the odometer readings and dates.`
+		}
+	];
+}
+
+/** Further ahead than this a projected date means nothing: the time limit falls first anyway. */
+const MAX_PROJECTION_DAYS = 36_525;
+
+type Limits = {
+	today: number;
+	timeDueDay: number;
+	dueOdometerKm: number;
+	kmRemaining: number;
+	averageKmPerDay: number | null;
+	distanceDueDay: number | null;
+};
+
+/** Where the limits fall: the due odometer, the time limit, and the average use if known. */
+function findLimits(input: ServiceIntervalInput, settings: IntervalSettings, steps: string[]) {
 	const last = input.lastChange;
 	const today = parseIsoDate(input.currentDate) as number;
 	const startDay = parseIsoDate(last.kind === 'changed' ? last.date : last.inServiceDate) as number;
@@ -232,14 +220,11 @@ export function calculateServiceInterval(
 	const dueOdometerKm =
 		last.kind === 'changed' ? last.odometerKm + settings.thenEveryKm : settings.firstChangeKm;
 	const timeDueDay = addMonths(startDay, settings.everyMonths);
-	const kmRemaining = dueOdometerKm - input.currentOdometerKm;
-	const steps: string[] = [
+	steps.push(
 		last.kind === 'changed'
 			? `Last change on ${last.date} at ${formatNumber(last.odometerKm, 0)} km: the next is due at ${formatNumber(dueOdometerKm, 0)} km (+${formatNumber(settings.thenEveryKm, 0)} km) or on ${formatIsoDate(timeDueDay)} (+${settings.everyMonths} months), whichever comes first.`
 			: `Never changed since ${last.inServiceDate}: the first change is due at ${formatNumber(dueOdometerKm, 0)} km or on ${formatIsoDate(timeDueDay)} (+${settings.everyMonths} months), whichever comes first.`
-	];
-	const warnings: string[] = [];
-
+	);
 	let averageKmPerDay: number | null = input.averageKmPerDay ?? null;
 	const elapsedDays = today - startDay;
 	if (averageKmPerDay === null && elapsedDays >= MIN_DAYS_FOR_ESTIMATE) {
@@ -248,59 +233,86 @@ export function calculateServiceInterval(
 			`Average use estimated from ${formatNumber(input.currentOdometerKm - startOdometerKm, 0)} km in ${formatNumber(elapsedDays, 0)} days${last.kind === 'never' ? ' (counted from 0 km at the in-service date)' : ''}: ${formatNumber(averageKmPerDay, 1)} km a day.`
 		);
 	}
+	const kmRemaining = dueOdometerKm - input.currentOdometerKm;
+	return { today, timeDueDay, dueOdometerKm, kmRemaining, averageKmPerDay };
+}
 
-	let distanceDueDay: number | null = null;
-	if (averageKmPerDay !== null && averageKmPerDay > 0) {
-		// Rounded up to whole days so the projected day is never before the limit is reached.
-		distanceDueDay = today + Math.ceil(kmRemaining / averageKmPerDay);
-		steps.push(
-			`At ${formatNumber(averageKmPerDay, 1)} km a day the odometer reaches ${formatNumber(dueOdometerKm, 0)} km on about ${formatIsoDate(distanceDueDay)}.`
-		);
-	} else {
+/** The day the odometer reaches the limit at the average use, or null when it cannot be told. */
+function projectDistanceDay(
+	limits: Omit<Limits, 'distanceDueDay'>,
+	steps: string[],
+	warnings: string[]
+): number | null {
+	const { today, kmRemaining, averageKmPerDay, dueOdometerKm } = limits;
+	if (averageKmPerDay === null || averageKmPerDay === 0) {
 		warnings.push(
 			averageKmPerDay === 0
 				? 'The vehicle is not being driven, so only the time limit can fall due.'
 				: 'Without an average distance per day the date of the distance limit cannot be projected; give one to see which limit comes first.'
 		);
+		return null;
 	}
-
-	let firstLimit: FirstLimit;
-	if (distanceDueDay !== null) {
-		firstLimit = distanceDueDay < timeDueDay ? 'distance' : 'time';
-	} else if (averageKmPerDay === 0) {
-		firstLimit = 'time';
-	} else if (kmRemaining < 0 && today <= timeDueDay) {
-		firstLimit = 'distance';
-	} else if (today > timeDueDay && kmRemaining >= 0) {
-		firstLimit = 'time';
-	} else {
-		firstLimit = 'unknown';
+	// Rounded up to whole days so the projected day is never before the limit is reached.
+	const days = Math.ceil(kmRemaining / averageKmPerDay);
+	// Written as "not within" so that an infinite day count (a tiny average) is caught too.
+	if (!(Math.abs(days) <= MAX_PROJECTION_DAYS)) {
+		warnings.push(
+			kmRemaining < 0
+				? `At ${formatNumber(averageKmPerDay, 1)} km a day the date the distance limit was passed cannot be told: it would lie more than 100 years back.`
+				: `At ${formatNumber(averageKmPerDay, 1)} km a day the distance limit is more than 100 years away, so the time limit falls first.`
+		);
+		return null;
 	}
+	const distanceDueDay = today + days;
+	steps.push(
+		`At ${formatNumber(averageKmPerDay, 1)} km a day the odometer reaches ${formatNumber(dueOdometerKm, 0)} km on about ${formatIsoDate(distanceDueDay)}.`
+	);
+	return distanceDueDay;
+}
 
+function findFirstLimit(limits: Limits): FirstLimit {
+	const { distanceDueDay, timeDueDay, averageKmPerDay, kmRemaining, today } = limits;
+	if (distanceDueDay !== null) return distanceDueDay < timeDueDay ? 'distance' : 'time';
+	if (averageKmPerDay !== null) return 'time';
+	if (kmRemaining < 0 && today <= timeDueDay) return 'distance';
+	if (today > timeDueDay && kmRemaining >= 0) return 'time';
+	return 'unknown';
+}
+
+function findStatus(limits: Limits, daysRemaining: number, settings: IntervalSettings) {
+	if (limits.today > limits.timeDueDay || limits.kmRemaining < 0) return 'overdue';
+	if (daysRemaining <= settings.dueSoonDays || limits.kmRemaining <= settings.dueSoonKm) {
+		return 'due_soon';
+	}
+	return 'ok';
+}
+
+export function calculateServiceInterval(
+	input: ServiceIntervalInput
+): CalculatorResult<ServiceIntervalValues> {
+	throwIfIssues(checkServiceIntervalInput(input));
+	const settings = resolveSettings(input.settings);
+	const steps: string[] = [];
+	const warnings: string[] = [];
+	const found = findLimits(input, settings, steps);
+	const limits: Limits = { ...found, distanceDueDay: projectDistanceDay(found, steps, warnings) };
+	const { today, timeDueDay, distanceDueDay, kmRemaining, averageKmPerDay } = limits;
 	const dueDay = distanceDueDay === null ? timeDueDay : Math.min(timeDueDay, distanceDueDay);
 	const daysRemaining = dueDay - today;
-	let status: ServiceStatus;
-	if (today > timeDueDay || kmRemaining < 0) {
-		status = 'overdue';
-	} else if (daysRemaining <= settings.dueSoonDays || kmRemaining <= settings.dueSoonKm) {
-		status = 'due_soon';
-	} else {
-		status = 'ok';
-	}
+	const status: ServiceStatus = findStatus(limits, daysRemaining, settings);
 	steps.push(
 		status === 'overdue'
 			? `Overdue: ${kmRemaining < 0 ? `${formatNumber(-kmRemaining, 0)} km past the distance limit` : `${formatNumber(today - timeDueDay, 0)} days past the time limit`}.`
 			: `${formatNumber(daysRemaining, 0)} days and ${formatNumber(kmRemaining, 0)} km remain (due soon within ${settings.dueSoonDays} days or ${formatNumber(settings.dueSoonKm, 0)} km).`
 	);
-
 	return {
 		values: {
 			status,
-			firstLimit,
+			firstLimit: findFirstLimit(limits),
 			dueDate: formatIsoDate(dueDay),
 			timeDueDate: formatIsoDate(timeDueDay),
 			distanceDueDate: distanceDueDay === null ? null : formatIsoDate(distanceDueDay),
-			dueOdometer: toQuantity(dueOdometerKm, 'km', 0),
+			dueOdometer: toQuantity(limits.dueOdometerKm, 'km', 0),
 			daysRemaining: toQuantity(daysRemaining, 'days', 0),
 			kmRemaining: toQuantity(kmRemaining, 'km', 0),
 			averageDistance: averageKmPerDay === null ? null : toQuantity(averageKmPerDay, 'km/day', 1)

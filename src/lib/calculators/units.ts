@@ -1,5 +1,6 @@
 import { CalculatorError, throwIfIssues, type CalculatorIssue } from './errors';
 import { formatNumber } from './format';
+import { checkRange, conversionRanges } from './ranges';
 import type { CalculatorResult, Quantity } from './result';
 
 /**
@@ -152,12 +153,11 @@ export function parseUnit(text: string, path = 'unit'): Unit {
 			path
 		);
 	}
-	const unit = aliases[key];
+	// Own keys only: "__proto__" or "constructor" must read as unknown units, not as Object's.
+	const unit = Object.hasOwn(aliases, key) ? aliases[key] : undefined;
 	if (!unit) {
-		throw new CalculatorError(
-			`Unknown unit "${trimmed}". Use one of: ${allUnits.join(', ')}.`,
-			path
-		);
+		const shown = trimmed.length > 40 ? `${trimmed.slice(0, 40)}…` : trimmed;
+		throw new CalculatorError(`Unknown unit "${shown}". Use one of: ${allUnits.join(', ')}.`, path);
 	}
 	return unit;
 }
@@ -172,20 +172,27 @@ function checkFinite(value: number): void {
 	}
 }
 
+/** Refuses a value outside its quantity's range, measured in the SI unit (see ranges.ts). */
+function checkInRange(valueInSi: number, quantity: PhysicalQuantity): void {
+	throwIfIssues(checkRange(valueInSi, conversionRanges[quantity], 'value'));
+}
+
 export function convertVolume(value: number, from: VolumeUnit, to: VolumeUnit): number {
 	checkFinite(value);
-	if (value < 0) throw new CalculatorError('A volume cannot be negative.', 'value');
+	checkInRange(value * litresPerUnit[from], 'volume');
 	return (value * litresPerUnit[from]) / litresPerUnit[to];
 }
 
 /** Works for absolute and gauge pressures alike: both scale the same way. */
 export function convertPressure(value: number, from: PressureUnit, to: PressureUnit): number {
 	checkFinite(value);
+	checkInRange(value * pascalsPerUnit[from], 'pressure');
 	return (value * pascalsPerUnit[from]) / pascalsPerUnit[to];
 }
 
 export function convertTorque(value: number, from: TorqueUnit, to: TorqueUnit): number {
 	checkFinite(value);
+	checkInRange(value * newtonMetresPerUnit[from], 'torque');
 	return (value * newtonMetresPerUnit[from]) / newtonMetresPerUnit[to];
 }
 
@@ -204,6 +211,7 @@ export function convertTemperature(
 			'value'
 		);
 	}
+	checkInRange(kelvin, 'temperature');
 	if (from === to) return value;
 	if (to === 'K') return kelvin;
 	if (from === '°C' && to === '°F') return (value * 9) / 5 + 32;

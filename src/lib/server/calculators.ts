@@ -1,3 +1,5 @@
+import { superValidate, type SuperValidated } from 'sveltekit-superforms/server';
+import { zod4 } from 'sveltekit-superforms/adapters';
 import { z } from 'zod';
 import {
 	CalculatorError,
@@ -9,7 +11,18 @@ import {
 	type CalculatorName,
 	type CalculatorResult,
 	type IntervalSettings
-} from '$lib/calculators';
+} from '../calculators';
+import {
+	buildFormSchema,
+	calculatorForms,
+	type CalculatorFormDefinition,
+	type CalculatorFormMessage,
+	type CalculatorSection,
+	type DisplayRow,
+	type FieldErrors,
+	type FormContext,
+	type FormValues
+} from '../calculator-forms';
 import { getShop } from './shops';
 import { AppError } from './errors';
 import { coolantIntervals } from './shops';
@@ -93,5 +106,73 @@ export async function runCalculatorForShop(
 	} catch (error) {
 		if (error instanceof CalculatorError) throw toAppError(error);
 		throw error;
+	}
+}
+
+type FormAdapter = ReturnType<typeof zod4<ReturnType<typeof buildFormSchema>>>;
+const adapters = new Map<CalculatorName, FormAdapter>();
+
+/** The superforms adapter of a calculator's form, built once from its field definitions. */
+export function formAdapterFor(definition: CalculatorFormDefinition): FormAdapter {
+	let adapter = adapters.get(definition.calculator);
+	if (!adapter) {
+		adapter = zod4(buildFormSchema(definition.fields));
+		adapters.set(definition.calculator, adapter);
+	}
+	return adapter;
+}
+
+/** Every calculator's section of the page: its fields, texts and a form with the defaults. */
+export async function describeCalculatorSections(
+	context: FormContext
+): Promise<CalculatorSection[]> {
+	return Promise.all(
+		calculatorForms.map(async (definition) => {
+			const entry = calculators[definition.calculator];
+			const form = await superValidate(definition.defaults(context), formAdapterFor(definition), {
+				id: definition.calculator,
+				errors: false
+			});
+			return {
+				calculator: definition.calculator,
+				action: definition.action,
+				short: definition.short,
+				title: entry.title,
+				description: entry.description,
+				cautions: definition.cautions,
+				fields: definition.fields,
+				form: form as SuperValidated<FormValues, CalculatorFormMessage>
+			};
+		})
+	);
+}
+
+/**
+ * Runs a calculator from its form's values: the values become the calculator's input, and its
+ * refusal comes back as messages at the form's fields (or one message for the form).
+ */
+export async function runCalculatorForm(
+	shopId: string,
+	definition: CalculatorFormDefinition,
+	values: FormValues
+): Promise<
+	| { ok: true; result: CalculatorResult; rows: DisplayRow[] }
+	| { ok: false; errors: FieldErrors; message?: string }
+> {
+	const { input, errors } = definition.toInput(values);
+	if (Object.keys(errors).length > 0) return { ok: false, errors };
+	try {
+		const result = await runCalculatorForShop(shopId, definition.calculator, input);
+		return { ok: true, result, rows: definition.present(result, values) };
+	} catch (error) {
+		if (!(error instanceof AppError) || error.code !== 'invalid_request') throw error;
+		const placed: FieldErrors = {};
+		const unplaced: string[] = [];
+		for (const issue of error.options.issues ?? [{ path: '', message: error.message }]) {
+			const field = definition.fieldOf[issue.path];
+			if (field) placed[field] ??= issue.message;
+			else unplaced.push(issue.message);
+		}
+		return { ok: false, errors: placed, message: unplaced.join(' ') || undefined };
 	}
 }

@@ -110,7 +110,7 @@ describe('drain-and-fill errors', () => {
 	it('rejects a target outside 0–100 % and one that would take over 100 cycles', () => {
 		expectCalculatorError(
 			() => calculateDrainFill({ capacityL: 10, drainL: 4, targetFreshPercent: 120 }),
-			'The share of fresh coolant must be between 0 and 100 %.'
+			'Target share of fresh coolant must be between 0 and 100 %.'
 		);
 		expectCalculatorError(
 			() => calculateDrainFill({ capacityL: 10, drainL: 0.01, targetFreshPercent: 99 }),
@@ -122,10 +122,47 @@ describe('drain-and-fill errors', () => {
 		for (const cycles of [1.5, -1]) {
 			expectCalculatorError(
 				() => findFreshFraction(10, 4, cycles),
-				'The number of cycles must be a whole number, 0 or more.',
+				'Number of cycles must be a whole number from 1 to 100.',
 				'cycles'
 			);
 		}
+	});
+
+	it('refuses 0 cycles and a 0 % target as input: they renew nothing', () => {
+		expectCalculatorError(
+			() => calculateDrainFill({ capacityL: 10, drainL: 4, cycles: 0 }),
+			'Number of cycles must be a whole number from 1 to 100.',
+			'cycles'
+		);
+		expectCalculatorError(
+			() => calculateDrainFill({ capacityL: 10, drainL: 4, targetFreshPercent: 0 }),
+			'Target share of fresh coolant must be more than 0 %.',
+			'targetFreshPercent'
+		);
+	});
+
+	it('refuses a capacity no cooling system has, with a message at the field', () => {
+		for (const capacityL of [1e17, 1e21, 1e308]) {
+			expectCalculatorError(
+				() => calculateDrainFill({ capacityL, drainL: 1, targetFreshPercent: 80 }),
+				/at most 1,000 L: no vehicle cooling system holds more/,
+				'capacityL'
+			);
+		}
+	});
+
+	it('refuses a drain too small to reach a target within 100 cycles instead of counting forever', () => {
+		// 1e-300 L of 10 L: log(1 − d/V) rounds to 0 without log1p, which once made the count endless.
+		expectCalculatorError(
+			() => calculateDrainFill({ capacityL: 10, drainL: 1e-300, targetFreshPercent: 80 }),
+			/more than 100 cycles/,
+			'targetFreshPercent'
+		);
+		expectCalculatorError(
+			() => findCyclesNeeded(1000, 1e-13, 0.8),
+			/more than 100 cycles/,
+			'targetFreshPercent'
+		);
 	});
 });
 

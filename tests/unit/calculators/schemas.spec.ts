@@ -82,6 +82,15 @@ describe('calculator registry', () => {
 		}
 	);
 
+	it('publishes each number’s physical range in the JSON Schema', () => {
+		const schema = z.toJSONSchema(calculators['drain-and-fill'].inputSchema, { io: 'input' }) as {
+			properties: Record<string, { exclusiveMinimum?: number; minimum?: number; maximum?: number }>;
+		};
+		// Common practice, no source: no vehicle cooling system holds more than 1,000 L.
+		expect(schema.properties.capacityL).toMatchObject({ exclusiveMinimum: 0, maximum: 1000 });
+		expect(schema.properties.cycles).toMatchObject({ minimum: 1, maximum: 100 });
+	});
+
 	it('refuses an unknown calculator by name', () => {
 		expectCalculatorError(
 			() => runCalculator('tyre-pressure', {}),

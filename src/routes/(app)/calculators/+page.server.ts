@@ -1,102 +1,56 @@
 import { fail } from '@sveltejs/kit';
-import { calculators } from '$lib/calculators';
-import { getShopIntervalSettings, runCalculatorForShop } from '$lib/server/calculators';
-import { AppError } from '$lib/server/errors';
+import { message, setError, superValidate } from 'sveltekit-superforms/server';
+import {
+	calculatorForms,
+	type CalculatorFormDefinition,
+	type CalculatorFormMessage,
+	type FormValues
+} from '$lib/calculator-forms';
+import {
+	describeCalculatorSections,
+	formAdapterFor,
+	getShopIntervalSettings,
+	runCalculatorForm
+} from '$lib/server/calculators';
 import { requirePermission } from '$lib/server/guard';
 import type { Action, Actions, PageServerLoad } from './$types';
-import {
-	altitudeChoices,
-	boilingPointForm,
-	conversionUnitGroups,
-	createFormDefaults,
-	describeFreezeCurves,
-	drainAndFillForm,
-	freezePointForm,
-	glycolForFreezePointForm,
-	mixAdjustmentForm,
-	placeIssues,
-	pressureChoices,
-	readFormValues,
-	serviceIntervalForm,
-	temperatureChoices,
-	unitConversionForm,
-	volumeChoices,
-	type CalculatorForm
-} from './calculator-forms';
-
-const freezeCurves = describeFreezeCurves();
 
 export const load: PageServerLoad = async (event) => {
 	const user = requirePermission(event, 'calculators:use');
 	const intervals = await getShopIntervalSettings(user.shopId);
 	const today = new Date().toISOString().slice(0, 10);
-	return {
-		defaults: createFormDefaults(today, intervals),
-		titles: Object.fromEntries(
-			Object.values(calculators).map((c) => [
-				c.name,
-				{ title: c.title, description: c.description }
-			])
-		),
-		freezeCurves,
-		conversionUnitGroups,
-		// Sent from here so the browser bundle does not carry the calculators and their schemas.
-		choices: {
-			temperature: temperatureChoices,
-			volume: volumeChoices,
-			pressure: pressureChoices,
-			altitude: altitudeChoices
-		}
-	};
+	return { sections: await describeCalculatorSections({ today, intervals }) };
 };
 
-/** One action per calculator: read the form, convert units, run, and answer rows or field errors. */
-function createCalculatorAction(form: CalculatorForm): Action {
+/** A body that is not a readable form (a broken multipart post) is a 400, not a 500. */
+async function readFormData(request: Request): Promise<FormData | null> {
+	try {
+		return await request.formData();
+	} catch {
+		return null;
+	}
+}
+
+/** One action per calculator: check the form, run the calculator, answer rows or field errors. */
+function createCalculatorAction(definition: CalculatorFormDefinition): Action {
 	return async (event) => {
 		const user = requirePermission(event, 'calculators:use');
-		const values = readFormValues(await event.request.formData(), form.fields);
-		const calculator = form.calculator;
-		const { input, errors } = form.toInput(values);
-		if (Object.keys(errors).length > 0) {
-			return fail(400, {
-				calculator,
-				message: 'Please correct the marked fields.',
-				errors,
-				values
-			});
+		const formData = await readFormData(event.request);
+		if (!formData) return fail(400, { message: 'The form could not be read: send it again.' });
+		const adapter = formAdapterFor(definition);
+		const form = await superValidate(formData, adapter, { id: definition.calculator });
+		if (!form.valid) return fail(400, { form });
+		const outcome = await runCalculatorForm(user.shopId, definition, form.data as FormValues);
+		if (outcome.ok) {
+			const { result, rows } = outcome;
+			return message(form, { kind: 'result', result, rows } satisfies CalculatorFormMessage);
 		}
-		try {
-			const result = await runCalculatorForShop(user.shopId, calculator, input);
-			return { calculator, values, result, ...form.present(result, values) };
-		} catch (error) {
-			if (!(error instanceof AppError) || error.code !== 'invalid_request') throw error;
-			const placed = placeIssues(
-				form,
-				error.options.issues ?? [{ path: '', message: error.message }]
-			);
-			const message =
-				placed.unplaced.length > 0
-					? placed.unplaced.join(' ')
-					: 'Please correct the marked fields.';
-			return fail(400, { calculator, message, errors: placed.errors, values });
-		}
+		for (const [field, text] of Object.entries(outcome.errors)) setError(form, field, text);
+		const text = outcome.message ?? 'Please correct the marked fields.';
+		return message(form, { kind: 'error', text } satisfies CalculatorFormMessage, { status: 400 });
 	};
 }
 
-const freezePointAction = createCalculatorAction(freezePointForm);
-const glycolForFreezePointAction = createCalculatorAction(glycolForFreezePointForm);
-const mixAdjustmentAction = createCalculatorAction(mixAdjustmentForm);
-const drainAndFillAction = createCalculatorAction(drainAndFillForm);
-const boilingPointAction = createCalculatorAction(boilingPointForm);
-const serviceIntervalAction = createCalculatorAction(serviceIntervalForm);
-const unitConversionAction = createCalculatorAction(unitConversionForm);
-
-export const actions = {
-	freezePoint: freezePointAction,
-	glycolForFreezePoint: glycolForFreezePointAction,
-	mixAdjustment: mixAdjustmentAction,
-	drainAndFill: drainAndFillAction,
-	boilingPoint: boilingPointAction,
-	serviceInterval: serviceIntervalAction,
-	unitConversion: unitConversionAction
-} satisfies Actions;
+export const actions = Object.fromEntries(
+	calculatorForms.map((definition) => [definition.action, createCalculatorAction(definition)])
+) satisfies Actions;
