@@ -7,6 +7,8 @@ import { seedOnStart } from '$lib/server/seed';
 import { startHousekeeping, sweepExpired } from '$lib/server/housekeeping';
 import { apiRateCounter } from '$lib/server/auth/rate-limit';
 import { checkRequestOrigin } from '$lib/server/request-origin';
+import { apiErrorsAsJson } from '$lib/server/api-errors';
+import { refuseUnreadableForms } from '$lib/server/form-posts';
 
 export const init: ServerInit = async () => {
 	getConfig(); // fail fast on a bad setting
@@ -74,7 +76,15 @@ const cors: Handle = async ({ event, resolve }) => {
 	return response;
 };
 
-export const handle = sequence(requestId, securityHeaders, cors, checkRequestOrigin, authenticate);
+export const handle = sequence(
+	requestId,
+	securityHeaders,
+	cors,
+	apiErrorsAsJson,
+	checkRequestOrigin,
+	refuseUnreadableForms,
+	authenticate
+);
 
 /** The unexpected: logged with the request id, shown to the person as a plain message with the id. */
 export const handleError: HandleServerError = ({ error, event, status, message }) => {

@@ -1,3 +1,4 @@
+/** Reading form posts with zod, and the form answers for a failed parse or a domain failure. */
 import { fail } from '@sveltejs/kit';
 import { z } from 'zod';
 import { AppError } from './errors';
@@ -6,16 +7,22 @@ export type FieldErrors = Record<string, string>;
 
 /**
  * Parses a form post with a zod schema. Only string fields are read (a file or a repeated field
- * fails the schema like any other bad value), and the first message per field is kept.
+ * fails the schema like any other bad value), and the first message per field is kept. `values`
+ * holds the string fields as sent, safe to send back to the form (never a file).
  */
 export function parseForm<S extends z.ZodType>(
 	schema: S,
 	formData: FormData
-): { ok: true; data: z.infer<S> } | { ok: false; errors: FieldErrors } {
-	const raw: Record<string, unknown> = {};
+):
+	| { ok: true; data: z.infer<S> }
+	| { ok: false; errors: FieldErrors; values: Record<string, string> } {
+	// Own keys only, so a field named `constructor` or `__proto__` is just a field.
+	const raw: Record<string, unknown> = Object.create(null);
+	const values: Record<string, string> = Object.create(null);
 	for (const [key, value] of formData) {
-		if (key in raw) raw[key] = [raw[key], value].flat();
+		if (Object.hasOwn(raw, key)) raw[key] = [raw[key], value].flat();
 		else raw[key] = typeof value === 'string' ? value : null;
+		if (typeof value === 'string' && !Object.hasOwn(values, key)) values[key] = value;
 	}
 	const result = schema.safeParse(raw);
 	if (result.success) return { ok: true, data: result.data };
@@ -24,7 +31,7 @@ export function parseForm<S extends z.ZodType>(
 		const field = String(issue.path[0] ?? 'form');
 		errors[field] ??= issue.message;
 	}
-	return { ok: false, errors };
+	return { ok: false, errors, values: { ...values } };
 }
 
 /** The form's answer for a failed parse: 400 with field messages and the safe values back. */
