@@ -31,12 +31,29 @@ export function parseForm<S extends z.ZodType>(
 		const field = String(issue.path[0] ?? 'form');
 		errors[field] ??= issue.message;
 	}
-	return { ok: false, errors, values: { ...values } };
+	return { ok: false, errors, values: { ...values } }; // failForm leaves out what it cannot send
+}
+
+/**
+ * The values a form answer may send back: plain values only (never a file), and no `__proto__`
+ * key, which the answer's serializer refuses (a 500).
+ */
+function echoable(values: Record<string, unknown>): Record<string, unknown> {
+	return Object.fromEntries(
+		Object.entries(values).filter(
+			([key, value]) =>
+				key !== '__proto__' && ['string', 'number', 'boolean'].includes(typeof value)
+		)
+	);
 }
 
 /** The form's answer for a failed parse: 400 with field messages and the safe values back. */
 export function failForm(errors: FieldErrors, values: Record<string, unknown> = {}) {
-	return fail(400, { message: 'Please correct the marked fields.', errors, values });
+	return fail(400, {
+		message: 'Please correct the marked fields.',
+		errors,
+		values: echoable(values)
+	});
 }
 
 /** An expected domain failure as a form answer; anything else is rethrown. */
@@ -45,7 +62,7 @@ export function failFromError(err: unknown, values: Record<string, unknown> = {}
 	const status =
 		err.code === 'conflict' ? 409 : err.status >= 400 && err.status < 500 ? err.status : 400;
 	const errors: FieldErrors = err.options.field ? { [err.options.field]: err.message } : {};
-	return fail(status, { message: err.message, errors, values });
+	return fail(status, { message: err.message, errors, values: echoable(values) });
 }
 
 export const emailField = z
