@@ -1,11 +1,10 @@
+import { readFileSync } from 'node:fs';
 import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ERROR_CODES } from '../../src/lib/api/error-codes';
+import { getOpenApiDocument } from '../../src/lib/server/openapi';
 import { Client } from '../support/client';
 import { startServer, type RunningServer } from '../support/server';
-import { DEMO_API_KEY, DEMO_PASSWORD } from './global-setup';
-import { readFileSync } from 'node:fs';
-import { getOpenApiDocument } from '../../src/lib/server/openapi';
 import {
 	formBody,
 	hostileString,
@@ -13,6 +12,7 @@ import {
 	type JsonSchema,
 	type SchemaContext
 } from './fuzz-arbitraries';
+import { DEMO, DEMO_API_KEY, DEMO_PASSWORD } from './helpers';
 import { actionPath, listEndpoints, listFormActions } from './route-tree';
 
 // Random and hostile bodies against every JSON endpoint and every form action of the production
@@ -27,12 +27,7 @@ const FORM_RUNS = Number(process.env.FUZZ_RUNS ?? 70);
 const SLOW_MS = 1000;
 const ABORT_MS = 5000;
 
-const ROLES = {
-	technician: 'tech@saltmarsh.example',
-	lead: 'lead@saltmarsh.example',
-	manager: 'manager@saltmarsh.example',
-	admin: 'admin@saltmarsh.example'
-} as const;
+const ROLES = DEMO;
 type Caller = keyof typeof ROLES | 'anonymous' | 'apiKey';
 const CALLERS: Caller[] = [
 	'anonymous',
@@ -179,7 +174,8 @@ async function check(sent: Sent, body: BodyInit | undefined, shown: string) {
 		answer = await send(sent, body);
 	} catch (error) {
 		throw new Error(
-			`${sent.method} ${sent.path} as ${sent.caller}: no answer (${error})\n${shown}`
+			`${sent.method} ${sent.path} as ${sent.caller}: no answer (${error})\n${shown}`,
+			{ cause: error }
 		);
 	}
 	const problems = problemsOf(sent, answer);
