@@ -8,6 +8,8 @@ import { startHousekeeping, sweepExpired } from '$lib/server/housekeeping';
 import { apiRateCounter } from '$lib/server/auth/api-rate-limit';
 import { checkRequestOrigin } from '$lib/server/request-origin';
 import { privateAndTransportHeaders } from '$lib/server/security-headers';
+import { apiErrorsAsJson } from '$lib/server/api-errors';
+import { refuseUnreadableForms } from '$lib/server/form-posts';
 
 export const init: ServerInit = async () => {
 	getConfig(); // fail fast on a bad setting
@@ -80,7 +82,9 @@ export const handle = sequence(
 	securityHeaders,
 	privateAndTransportHeaders,
 	cors,
+	apiErrorsAsJson,
 	checkRequestOrigin,
+	refuseUnreadableForms,
 	authenticate
 );
 

@@ -1,20 +1,11 @@
 import { z } from 'zod';
+import { ERROR_CODES } from './error-codes';
 import { validateVin } from '../vehicle/vin';
 
 // Schemas of POST /api/v1/diagnose (contract v1). The OpenAPI document is generated from these
 // with z.toJSONSchema, so every field carries its description here and nowhere else.
 
 export const MAX_COMPLAINT_CHARS = 2000;
-export const ERROR_CODES = [
-	'invalid_request',
-	'unauthenticated',
-	'forbidden',
-	'not_found',
-	'too_large',
-	'unsupported_media_type',
-	'rate_limited',
-	'internal_error'
-] as const;
 
 export const observationValueSchema = z
 	.union([z.boolean(), z.string(), z.number(), z.null()])
@@ -251,4 +242,3 @@ export type DiagnoseRequest = z.infer<typeof diagnoseRequestSchema>;
 export type DiagnoseRequestInput = z.input<typeof diagnoseRequestSchema>;
 export type DiagnoseResponse = z.infer<typeof diagnoseResponseSchema>;
 export type ApiError = z.infer<typeof apiErrorSchema>;
-export type ApiErrorCode = (typeof ERROR_CODES)[number];

@@ -6,7 +6,7 @@ import { generateId } from './auth/crypto';
 import { getPublishedEdition } from './editions';
 import { AppError } from './errors';
 import { zodIssues } from './http';
-import type { ApiCaller } from './guard';
+import { requireCallerPermission, type ApiCaller } from './guard';
 
 export const NEXT_QUESTIONS_IN_RESPONSE = 10;
 
@@ -27,6 +27,14 @@ export function parseDiagnoseRequest(body: unknown): DiagnoseRequest {
  * Returns the response and the edition's serializer, which writes it as JSON.
  */
 export async function diagnoseForShop(caller: ApiCaller, request: DiagnoseRequest) {
+	// Opening a case is working cases: refused before anything runs. The contract lets an intake
+	// key open one (its web form's enquiries become cases).
+	if (request.saveAsCase) {
+		requireCallerPermission(caller, 'cases:work', {
+			keysMay: true,
+			message: 'Your role may not open cases; send the request without saveAsCase.'
+		});
+	}
 	const edition = await getPublishedEdition(caller.shopId, caller.publishedEdition);
 	const issues = edition.diagnoser.validateObservations(request.observations, request.unknown);
 	if (issues.length) {

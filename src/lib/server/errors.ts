@@ -2,26 +2,12 @@
  * An expected failure of a domain operation, with a message fit for the person who caused it.
  * Routes turn it into a form message (fail) or the API's JSON error shape.
  */
-export type AppErrorCode =
-	| 'invalid_request'
-	| 'unauthenticated'
-	| 'forbidden'
-	| 'not_found'
-	| 'conflict'
-	| 'too_large'
-	| 'unsupported_media_type'
-	| 'rate_limited';
+import { ERROR_STATUS, type ApiErrorCode } from '../api/error-codes';
 
-export const STATUS_OF: Record<AppErrorCode, number> = {
-	invalid_request: 400,
-	unauthenticated: 401,
-	forbidden: 403,
-	not_found: 404,
-	conflict: 409,
-	too_large: 413,
-	unsupported_media_type: 415,
-	rate_limited: 429
-};
+/** Every contract code but `internal_error`, which only the unexpected produces. */
+export type AppErrorCode = Exclude<ApiErrorCode, 'internal_error'>;
+
+export const STATUS_OF: Record<ApiErrorCode, number> = ERROR_STATUS;
 
 export type Issue = { path: string; message: string };
 

@@ -2,7 +2,7 @@ import { error, redirect, type RequestEvent } from '@sveltejs/kit';
 import { authenticateApiKey } from './auth/api-keys';
 import type { PublishedEditionRow } from './editions';
 import { apiRateCounter } from './auth/api-rate-limit';
-import { can, type Permission } from './auth/roles';
+import { can, type Permission, type Role } from './auth/roles';
 import type { SessionUser } from './auth/session';
 import { getConfig } from './config';
 import { AppError } from './errors';
@@ -33,6 +33,8 @@ const API_KEY_PERMISSIONS: Permission[] = ['diagnose:use', 'calculators:use'];
 export type ApiCaller = {
 	shopId: string;
 	userId: string | null;
+	/** The signed-in person's role; null for an API key, whose rights are the key's own. */
+	role: Role | null;
 	apiKeyId: string | null;
 	/** The shop's published edition when it was read with the key (null: none); left out for a
 	 * session, whose edition is looked up when needed. */
@@ -55,6 +57,7 @@ async function identifyCaller(
 		return {
 			shopId: key.shopId,
 			userId: null,
+			role: null,
 			apiKeyId: key.id,
 			publishedEdition: key.publishedEdition
 		};
@@ -64,7 +67,21 @@ async function identifyCaller(
 		return new AppError('unauthenticated', 'Sign in or send an API key (Authorization: Bearer …).');
 	}
 	if (!can(user.role, permission)) return new AppError('forbidden', 'Your role may not do this.');
-	return { shopId: user.shopId, userId: user.id, apiKeyId: null };
+	return { shopId: user.shopId, userId: user.id, role: user.role, apiKeyId: null };
+}
+
+/**
+ * A further right an already authenticated caller needs for part of a request (opening a case
+ * from a diagnosis): a person needs it in their role; an intake key has it when the contract
+ * gives it to keys (`keysMay`).
+ */
+export function requireCallerPermission(
+	caller: ApiCaller,
+	permission: Permission,
+	opts: { keysMay: boolean; message: string }
+): void {
+	const allowed = caller.role === null ? opts.keysMay : can(caller.role, permission);
+	if (!allowed) throw new AppError('forbidden', opts.message);
 }
 
 /**

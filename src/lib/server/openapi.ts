@@ -1,14 +1,36 @@
 import { z } from 'zod';
 import { apiErrorSchema, diagnoseRequestSchema, diagnoseResponseSchema } from '../api/schema';
+import { ERROR_CODES, ERROR_STATUS, type ApiErrorCode } from '../api/error-codes';
 import { calculatorNames, calculatorResultSchema, calculators } from '../calculators';
 
 const schema = (s: z.ZodType, io: 'input' | 'output') =>
 	z.toJSONSchema(s, { target: 'draft-2020-12', io, unrepresentable: 'any' });
 
-const errorResponse = (description: string) => ({
-	description,
-	content: { 'application/json': { schema: { $ref: '#/components/schemas/Error' } } }
-});
+/** Error answers by contract code; each is listed under the code's status from the one list. */
+function errorResponses(descriptions: Partial<Record<ApiErrorCode, string>>) {
+	return Object.fromEntries(
+		ERROR_CODES.filter((code) => descriptions[code] !== undefined).map((code) => [
+			String(ERROR_STATUS[code]),
+			{
+				description: `\`${code}\`: ${descriptions[code]}`,
+				content: { 'application/json': { schema: { $ref: '#/components/schemas/Error' } } }
+			}
+		])
+	);
+}
+
+/** What every v1 operation may answer besides its own errors. */
+const COMMON_ERRORS = {
+	unauthenticated: 'No, unknown or revoked key, and no session',
+	method_not_allowed: 'The path exists but not for this method; see Allow',
+	rate_limited: 'Over the per-key or per-IP limit; see Retry-After',
+	internal_error: 'A bug: the answer carries the request id'
+} as const;
+
+const BODY_ERRORS = {
+	invalid_request: 'Not JSON, fails the schema, or a value out of range',
+	unsupported_media_type: 'Body not sent as application/json'
+} as const;
 
 let document: Record<string, unknown> | undefined;
 
@@ -43,13 +65,13 @@ function describeCalculatorPaths(): Record<string, unknown> {
 								'application/json': { schema: { $ref: '#/components/schemas/CalculatorResult' } }
 							}
 						},
-						'400': errorResponse(
-							'Not JSON, fails the schema, or a value the calculator cannot answer'
-						),
-						'401': errorResponse('No, unknown or revoked key, and no session'),
-						'413': errorResponse('Body over 16 KiB'),
-						'415': errorResponse('Body not sent as application/json'),
-						'429': errorResponse('Over the per-key or per-IP limit; see Retry-After')
+						...errorResponses({
+							...COMMON_ERRORS,
+							...BODY_ERRORS,
+							invalid_request:
+								'Not JSON, fails the schema, or a value the calculator cannot answer',
+							too_large: 'Body over 16 KiB'
+						})
 					}
 				}
 			}
@@ -100,14 +122,13 @@ export function getOpenApiDocument(): Record<string, unknown> {
 								'application/json': { schema: { $ref: '#/components/schemas/DiagnoseResponse' } }
 							}
 						},
-						'400': errorResponse(
-							'Not JSON, fails the schema, unknown observation, bad value or VIN'
-						),
-						'401': errorResponse('No, unknown or revoked key, and no session'),
-						'403': errorResponse('Signed in, but the role may not do this'),
-						'413': errorResponse('Body over 64 KiB'),
-						'415': errorResponse('Body not sent as application/json'),
-						'429': errorResponse('Over the per-key or per-IP limit; see Retry-After')
+						...errorResponses({
+							...COMMON_ERRORS,
+							...BODY_ERRORS,
+							invalid_request: 'Not JSON, fails the schema, unknown observation, bad value or VIN',
+							forbidden: 'Signed in, but the role may not do this (saveAsCase needs cases:work)',
+							too_large: 'Body over 64 KiB'
+						})
 					}
 				}
 			},
@@ -120,7 +141,7 @@ export function getOpenApiDocument(): Record<string, unknown> {
 						'200': {
 							description: '{ calculators: [{ name, title, description, inputSchema }] }'
 						},
-						'401': errorResponse('No, unknown or revoked key, and no session')
+						...errorResponses(COMMON_ERRORS)
 					}
 				}
 			},

@@ -1,13 +1,10 @@
 /** Cross-site form protection for pages, and a JSON-only body rule for the API. */
 import type { Handle } from '@sveltejs/kit';
-import { apiError } from './http';
+import { apiError, mediaType } from './http';
 
 const WRITE_METHODS = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
 /** The content types a browser may send cross-site without a preflight ("simple" requests). */
 const FORM_TYPES = ['application/x-www-form-urlencoded', 'multipart/form-data', 'text/plain'];
-
-export const mediaType = (request: Request) =>
-	(request.headers.get('content-type') ?? '').split(';')[0].trim().toLowerCase();
 
 const isFormType = (request: Request) => FORM_TYPES.includes(mediaType(request));
 

@@ -3,6 +3,8 @@ import type { RequestEvent } from '@sveltejs/kit';
 import { apiError, apiHandler, json, readJsonBody, zodIssues } from '../../../src/lib/server/http';
 import { AppError } from '../../../src/lib/server/errors';
 import { z } from 'zod';
+import { ERROR_CODES } from '../../../src/lib/api/error-codes';
+import { getOpenApiDocument } from '../../../src/lib/server/openapi';
 
 const event = (requestId = 'req-123') =>
 	({
@@ -36,7 +38,7 @@ describe('API error handling', () => {
 		const body = await res.json();
 		expect(body).toEqual({
 			error: {
-				code: 'internal',
+				code: 'internal_error',
 				message: 'Something went wrong on our side.',
 				requestId: 'req-500'
 			}
@@ -56,13 +58,42 @@ describe('API error handling', () => {
 		expect(await res.json()).toEqual({ error: { code: 'rate_limited', message: 'Slow down.' } });
 	});
 
-	it('maps each contract code to its status', async () => {
-		const statuses = await Promise.all(
-			(['invalid_request', 'unauthenticated', 'forbidden', 'not_found', 'too_large'] as const).map(
-				(code) => apiError(code, 'x').status
-			)
-		);
-		expect(statuses).toEqual([400, 401, 403, 404, 413]);
+	it('maps each contract code to its status, as the contract table lists them', () => {
+		// contract/api.md, "Errors": the table of statuses and codes.
+		const contractTable = {
+			invalid_request: 400,
+			unauthenticated: 401,
+			forbidden: 403,
+			not_found: 404,
+			method_not_allowed: 405,
+			conflict: 409,
+			too_large: 413,
+			unsupported_media_type: 415,
+			rate_limited: 429,
+			internal_error: 500
+		};
+		expect(ERROR_CODES).toEqual(Object.keys(contractTable));
+		for (const [code, status] of Object.entries(contractTable)) {
+			expect(apiError(code as keyof typeof contractTable, 'x').status).toBe(status);
+		}
+	});
+
+	it('publishes in OpenAPI the same codes the handler sends', () => {
+		type ErrorSchema = {
+			$defs: { Error: { properties: { error: { properties: { code: { enum: string[] } } } } } };
+		};
+		const doc = getOpenApiDocument() as { components: { schemas: { Error: ErrorSchema } } };
+		const codeSchema = doc.components.schemas.Error.$defs.Error.properties.error.properties;
+		expect(codeSchema.code.enum).toEqual([...ERROR_CODES]);
+		expect(codeSchema.code.enum).toContain('internal_error');
+		expect(codeSchema.code.enum).not.toContain('internal');
+	});
+
+	it('sets Allow on a 405', async () => {
+		const res = apiError('method_not_allowed', 'GET is not allowed here.', { allow: 'POST' });
+		expect(res.status).toBe(405);
+		expect(res.headers.get('allow')).toBe('POST');
+		expect((await res.json()).error.code).toBe('method_not_allowed');
 	});
 
 	it('writes zod paths the way the contract shows them', () => {
@@ -79,7 +110,35 @@ describe('API error handling', () => {
 
 describe('reading a JSON body', () => {
 	const post = (body: string, headers: Record<string, string> = {}) =>
-		new Request('http://localhost/', { method: 'POST', body, headers });
+		new Request('http://localhost/', {
+			method: 'POST',
+			body,
+			headers: { 'content-type': 'application/json', ...headers }
+		});
+
+	/** A streamed body (no Content-Length) of `chunks` chunks of `chunkBytes`, and whether the
+	 * server side cancelled it (which resets the connection instead of answering). */
+	function streamed(chunks: number, chunkBytes: number, failWith?: unknown) {
+		const state = { cancelled: false };
+		let sent = 0;
+		const body = new ReadableStream<Uint8Array>({
+			pull(controller) {
+				if (failWith && sent === 1) return controller.error(failWith);
+				if (sent++ < chunks) controller.enqueue(new Uint8Array(chunkBytes).fill(0x20));
+				else controller.close();
+			},
+			cancel() {
+				state.cancelled = true;
+			}
+		});
+		const request = new Request('http://localhost/', {
+			method: 'POST',
+			body,
+			headers: { 'content-type': 'application/json' },
+			duplex: 'half'
+		} as RequestInit);
+		return { request, state };
+	}
 
 	it('counts the bytes received, not the declared length', async () => {
 		const body = JSON.stringify({ complaint: 'x'.repeat(2000) });
@@ -92,5 +151,38 @@ describe('reading a JSON body', () => {
 			code: 'invalid_request',
 			message: 'The request body is not valid JSON.'
 		});
+	});
+
+	it('answers a streamed body over the limit with too_large, leaving the stream uncancelled', async () => {
+		const { request, state } = streamed(100, 1024);
+		await expect(readJsonBody(request, 16 * 1024)).rejects.toMatchObject({ code: 'too_large' });
+		expect(state.cancelled).toBe(false);
+	});
+
+	it('reports the server body limit (a 413 from the stream) as too_large, not a 500', async () => {
+		const limit = Object.assign(new Error('request body size exceeded BODY_SIZE_LIMIT'), {
+			status: 413
+		});
+		const { request } = streamed(10, 10, limit);
+		await expect(readJsonBody(request, 64 * 1024)).rejects.toMatchObject({ code: 'too_large' });
+	});
+
+	it('reports a body cut off by the client as invalid_request', async () => {
+		const { request } = streamed(10, 10, new Error('aborted'));
+		await expect(readJsonBody(request, 64 * 1024)).rejects.toMatchObject({
+			code: 'invalid_request'
+		});
+	});
+
+	it('refuses a body not sent as JSON with unsupported_media_type', async () => {
+		for (const type of ['text/plain', 'application/xml', 'multipart/form-data; boundary=x']) {
+			await expect(readJsonBody(post('{}', { 'content-type': type }), 1024)).rejects.toMatchObject({
+				code: 'unsupported_media_type',
+				status: 415
+			});
+		}
+		await expect(
+			readJsonBody(post('{"a":1}', { 'content-type': 'application/json; charset=utf-8' }), 1024)
+		).resolves.toEqual({ a: 1 });
 	});
 });

@@ -13,9 +13,8 @@ export const load: PageServerLoad = async (event) => {
 
 const saveAction: Action = async (event) => {
 	const user = requirePermission(event, 'shop:settings');
-	const formData = await event.request.formData();
-	const parsed = parseForm(shopSettingsSchema, formData);
-	if (!parsed.ok) return failForm(parsed.errors, Object.fromEntries(formData));
+	const parsed = parseForm(shopSettingsSchema, await event.request.formData());
+	if (!parsed.ok) return failForm(parsed.errors, parsed.values);
 	await updateShopSettings(user, parsed.data, clientIp(event));
 	return { ok: true, notice: 'Shop settings saved.' };
 };
