@@ -8,6 +8,7 @@ export { createCase, getCaseDetail, openCase, saveDiagnoseAsCase, takeCase } fro
 export { appendEvent, caseNotFound, readEventViews } from './events';
 export { listCases } from './list';
 export type { Actor } from './store';
+export type { OpenCase } from './cases';
 
 /** Parses a request part with a schema of the case API; every problem comes back with its path. */
 export function parseCaseRequest<S extends z.ZodType>(schema: S, value: unknown): z.infer<S> {
