@@ -481,3 +481,22 @@ describe('rescoring on a newer edition', () => {
 		expect((await append(client, c.case.id, 'rescored', { toEdition: 2 })).status).toBe(409);
 	});
 });
+
+describe('the case API in OpenAPI', () => {
+	it('publishes every case path with its schemas, and every reference resolves', async () => {
+		const doc = await (await newClient().get('/api/v1/openapi.json')).json();
+		expect(Object.keys(doc.paths)).toEqual(
+			expect.arrayContaining([
+				'/api/v1/cases',
+				'/api/v1/cases/{id}',
+				'/api/v1/cases/{id}/events',
+				'/api/v1/cases/{id}/take'
+			])
+		);
+		expect(doc.paths['/api/v1/cases/{id}/events'].post.responses).toHaveProperty('409');
+		const text = JSON.stringify(doc);
+		const refs = [...text.matchAll(/"\$ref":"#\/components\/schemas\/([^"]+)"/g)].map((m) => m[1]);
+		expect(refs.filter((name) => !doc.components.schemas[name])).toEqual([]);
+		expect(JSON.stringify(doc.components.schemas.AppendEvent)).toContain('test_result_recorded');
+	});
+});
