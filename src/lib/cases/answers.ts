@@ -158,3 +158,40 @@ export function toDiagnoseInput(state: CaseState, isKnown: (key: string) => bool
 export function settledKeys(state: CaseState): Set<string> {
 	return new Set([...state.answers.keys(), ...state.notSure, ...state.decided.keys()]);
 }
+
+/** The state as JSON, kept on the case row so an append need not re-read the whole timeline. */
+export type StoredCaseState = {
+	v: 1;
+	/** The last event the state includes. */
+	seq: number;
+	answers: CurrentAnswer[];
+	notSure: string[];
+	decided: DecidedMatch[];
+	ticks: [string, number[]][];
+};
+
+export function storeCaseState(state: CaseState, seq: number): StoredCaseState {
+	return {
+		v: 1,
+		seq,
+		answers: [...state.answers.values()],
+		notSure: [...state.notSure],
+		decided: [...state.decided.values()],
+		ticks: [...state.ticks].map(([test, steps]) => [test, [...steps]])
+	};
+}
+
+/** The stored state if it is of this version and includes exactly the events up to `lastSeq`;
+ * otherwise null, and the caller derives the state from the timeline. */
+export function restoreCaseState(
+	stored: StoredCaseState | null | undefined,
+	lastSeq: number
+): CaseState | null {
+	if (!stored || stored.v !== 1 || stored.seq !== lastSeq) return null;
+	return {
+		answers: new Map(stored.answers.map((answer) => [answer.key, answer])),
+		notSure: new Set(stored.notSure),
+		decided: new Map(stored.decided.map((match) => [match.key, match])),
+		ticks: new Map(stored.ticks.map(([test, steps]) => [test, new Set(steps)]))
+	};
+}

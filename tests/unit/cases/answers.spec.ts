@@ -1,6 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import {
+	applyEvent,
 	deriveCaseState,
+	restoreCaseState,
+	storeCaseState,
 	settledKeys,
 	toDiagnoseInput,
 	type TimelineEvent
@@ -123,5 +126,33 @@ describe('a case’s answers derived from its timeline', () => {
 		expect(toDiagnoseInput(state, (key) => key === 'coolant_level').observations).toEqual({
 			coolant_level: 'low'
 		});
+	});
+});
+
+describe('the state kept on the case row', () => {
+	const events = [
+		event('case_opened', { observations: { coolant_level: 'low' }, unknown: ['oil_milky'] }),
+		event('complaint_match_accepted', {
+			key: 'temp_gauge',
+			value: 'high_at_idle',
+			from: 'in traffic'
+		}),
+		event('complaint_match_rejected', { key: 'sweet_smell', value: 'cabin' }),
+		event('test_step_ticked', { test: 'pressure_cap_test', step: 3, done: true })
+	];
+	const lastSeq = events.at(-1)!.seq;
+
+	it('restores to the same state, and applying the next event to it equals deriving anew', () => {
+		const stored = JSON.parse(JSON.stringify(storeCaseState(deriveCaseState(events), lastSeq)));
+		const restored = restoreCaseState(stored, lastSeq);
+		expect(restored).toEqual(deriveCaseState(events));
+		const next = event('answer_set', { key: 'coolant_level', value: 'full' });
+		expect(applyEvent(restored!, next)).toEqual(deriveCaseState([...events, next]));
+	});
+
+	it('is not used when it is behind the case’s last event or missing', () => {
+		const stored = storeCaseState(deriveCaseState(events), lastSeq);
+		expect(restoreCaseState(stored, lastSeq + 1)).toBeNull();
+		expect(restoreCaseState(null, lastSeq)).toBeNull();
 	});
 });

@@ -5,7 +5,14 @@ import type { BatchItem } from 'drizzle-orm/batch';
 import { alias } from 'drizzle-orm/sqlite-core';
 import type { CaseDetail, CreateCase, VehicleInput } from '../../api/cases-schema';
 import type { DiagnoseRequest } from '../../diagnosis/api-schema';
-import { applyEvent, deriveCaseState, emptyCaseState } from '../../cases/answers';
+import {
+	applyEvent,
+	deriveCaseState,
+	emptyCaseState,
+	restoreCaseState,
+	storeCaseState,
+	type CaseState
+} from '../../cases/answers';
 import type { CaseContact, CaseSource, OdometerUnit } from '../../cases/model';
 import { db } from '../db';
 import { caseEvents, cases, rulebookEditions, users, vehicles } from '../db/schema';
@@ -94,6 +101,7 @@ export async function openCase(
 			assignedTo: spec.status === 'open' ? actor.userId : null,
 			lastSeq: 1,
 			topCauses: ranking.slice(0, TOP_CAUSES_ON_CASE),
+			state: storeCaseState(state, 1),
 			createdAt,
 			updatedAt: createdAt
 		}),
@@ -178,7 +186,14 @@ export async function takeCase(
 			}),
 			db
 				.update(cases)
-				.set({ status: 'open', assignedTo: actor.userId, lastSeq: seq, updatedAt: now })
+				.set({
+					status: 'open',
+					assignedTo: actor.userId,
+					lastSeq: seq,
+					// Taking changes no answer: the kept state moves on to the new event, if it was current.
+					state: storeState(restoreCaseState(row.state, row.lastSeq), seq),
+					updatedAt: now
+				})
 				.where(and(eq(cases.id, caseId), eq(cases.lastSeq, row.lastSeq)))
 		]);
 	} catch (error) {
@@ -188,6 +203,9 @@ export async function takeCase(
 		throw error;
 	}
 }
+
+const storeState = (state: CaseState | null, seq: number) =>
+	state ? storeCaseState(state, seq) : null;
 
 const person = (id: string | null, name: string | null) => (id ? { id, name: name ?? '' } : null);
 

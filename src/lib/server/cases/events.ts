@@ -2,12 +2,19 @@
 // re-ranked with the case's edition) and reading events as the API shows them.
 import { and, asc, desc, eq, gt, sql } from 'drizzle-orm';
 import type { AppendEvent, CaseEventView } from '../../api/cases-schema';
-import { deriveCaseState, settledKeys } from '../../cases/answers';
+import {
+	applyEvent,
+	deriveCaseState,
+	restoreCaseState,
+	settledKeys,
+	storeCaseState
+} from '../../cases/answers';
+import { toAsciiJson, type ResponseSerializer } from '../../diagnosis/response-json';
 import { db } from '../db';
 import { caseEvents, cases, rulebookEditions, users } from '../db/schema';
 import { getCompiledEdition, publishedEditionsOf, type PublishedEdition } from '../editions';
 import { AppError } from '../errors';
-import { scoreCase } from './scoring';
+import { scoreCase, type CaseDiagnosis } from './scoring';
 import {
 	eventInsert,
 	isUniqueViolation,
@@ -98,24 +105,35 @@ async function rescoreTarget(row: CaseRow, toEdition: number): Promise<Published
 type AppendResult = {
 	event: CaseEventView;
 	replayed: boolean;
-	diagnosis: Awaited<ReturnType<typeof scoreCase>>['diagnosis'];
+	diagnosis: CaseDiagnosis;
+	serializer: ResponseSerializer;
 };
 
-/** The current diagnosis of a case, for a replayed append (nothing is written). */
-async function answerReplay(row: CaseRow, event: CaseEventView): Promise<AppendResult> {
-	const edition = await getCompiledEdition(row.shopId, {
+const editionOf = (row: CaseRow) =>
+	getCompiledEdition(row.shopId, {
 		id: row.editionId,
 		number: row.editionNumber,
 		publishedAt: row.editionPublishedAt
 	});
-	const state = deriveCaseState(await readTimeline(row.id));
-	const { diagnosis } = await scoreCase(edition, state, { testSteps: false });
-	return { event, replayed: true, diagnosis };
+
+/** The case's answers: kept on the row, or derived from the timeline when the row's copy is stale. */
+async function currentState(row: CaseRow) {
+	return restoreCaseState(row.state, row.lastSeq) ?? deriveCaseState(await readTimeline(row.id));
+}
+
+/** A replayed append: the stored event and the case's current diagnosis; nothing is written. */
+async function findReplay(row: CaseRow, clientEventId: string): Promise<AppendResult | null> {
+	const event = await readEventView(row.id, clientEventId);
+	if (!event) return null;
+	const edition = await editionOf(row);
+	const { diagnosis } = await scoreCase(edition, await currentState(row), { testSteps: false });
+	return { event, replayed: true, diagnosis, serializer: edition.serializer };
 }
 
 /**
  * Appends one event to an open case of the caller's shop and answers it with the new diagnosis.
- * A client event id seen before is answered with the stored event and nothing is written.
+ * A client event id seen before is answered with the stored event and nothing is written: the
+ * unique index on (case, client event id) finds it, so the common case costs no extra read.
  */
 export async function appendEvent(
 	actor: Actor,
@@ -126,18 +144,17 @@ export async function appendEvent(
 	for (let attempt = 0; attempt < MAX_APPEND_ATTEMPTS; attempt++) {
 		const row = await readCase(actor, caseId);
 		if (!row) throw caseNotFound();
-		const timeline = await readTimeline(caseId);
-		if (timeline.some((event) => event.clientEventId === input.id)) {
-			return answerReplay(row, (await readEventView(caseId, input.id))!);
+		let written: AppendResult | null;
+		try {
+			written = await tryAppend(actor, row, input, now());
+		} catch (error) {
+			// A refused event may be the replay of one that was stored before the case changed.
+			if (error instanceof AppError) throw (await findReplay(row, input.id)) ?? error;
+			throw error;
 		}
-		if (row.status !== 'open') {
-			throw new AppError('conflict', `The case is ${row.status}; only an open case takes events.`);
-		}
-		if (timeline.length >= MAX_EVENTS_PER_CASE) {
-			throw new AppError('conflict', `The case holds its limit of ${MAX_EVENTS_PER_CASE} events.`);
-		}
-		const written = await tryAppend(actor, row, timeline, input, now());
 		if (written) return written;
+		const replay = await findReplay(row, input.id);
+		if (replay) return replay;
 	}
 	throw new AppError('conflict', 'The case is changing too fast just now; send the event again.');
 }
@@ -145,18 +162,19 @@ export async function appendEvent(
 async function tryAppend(
 	actor: Actor,
 	row: CaseRow,
-	timeline: Awaited<ReturnType<typeof readTimeline>>,
 	input: AppendEvent,
 	at: Date
 ): Promise<AppendResult | null> {
+	if (row.status !== 'open') {
+		throw new AppError('conflict', `The case is ${row.status}; only an open case takes events.`);
+	}
+	if (row.lastSeq >= MAX_EVENTS_PER_CASE) {
+		throw new AppError('conflict', `The case holds its limit of ${MAX_EVENTS_PER_CASE} events.`);
+	}
 	const edition =
 		input.kind === 'rescored'
 			? await rescoreTarget(row, input.payload.toEdition)
-			: await getCompiledEdition(row.shopId, {
-					id: row.editionId,
-					number: row.editionNumber,
-					publishedAt: row.editionPublishedAt
-				});
+			: await editionOf(row);
 	const checked = checkEvent(input, {
 		rulebook: edition.rulebook,
 		complaintMatches: () =>
@@ -172,7 +190,7 @@ async function tryAppend(
 			? { fromEdition: row.editionNumber, toEdition: edition.number }
 			: checked.payload;
 	const seq = row.lastSeq + 1;
-	const state = deriveCaseState([...timeline, { seq, kind: input.kind, payload }]);
+	const state = applyEvent(await currentState(row), { seq, kind: input.kind, payload });
 	const { diagnosis, ranking } = await scoreCase(edition, state, { testSteps: false });
 	try {
 		await db.batch([
@@ -194,13 +212,14 @@ async function tryAppend(
 				.set({
 					lastSeq: seq,
 					topCauses: ranking.slice(0, TOP_CAUSES_ON_CASE),
+					state: storeCaseState(state, seq),
 					editionId: edition.id,
 					updatedAt: at
 				})
 				.where(and(eq(cases.id, row.id), eq(cases.lastSeq, row.lastSeq)))
 		]);
 	} catch (error) {
-		// Another device took this sequence number (or sent this id) first: read again.
+		// Another device took this sequence number, or this id was sent before: the caller looks.
 		if (isUniqueViolation(error)) return null;
 		throw error;
 	}
@@ -214,7 +233,12 @@ async function tryAppend(
 		by: actor.userId ? { id: actor.userId, name: row.actorName ?? '' } : null,
 		at: at.toISOString()
 	};
-	return { event, replayed: false, diagnosis };
+	return { event, replayed: false, diagnosis, serializer: edition.serializer };
+}
+
+/** The append's answer as JSON: the diagnosis written by the edition's serializer. */
+export function appendResultJson({ event, replayed, diagnosis, serializer }: AppendResult): string {
+	return `{"event":${toAsciiJson(event)},"replayed":${replayed},"diagnosis":${serializer.stringify(diagnosis)}}`;
 }
 
 /** Suggestions from the complaint that the technician has not yet accepted or rejected. */

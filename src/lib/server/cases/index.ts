@@ -5,7 +5,7 @@ import { AppError } from '../errors';
 import { zodIssues } from '../http';
 
 export { createCase, getCaseDetail, openCase, saveDiagnoseAsCase, takeCase } from './cases';
-export { appendEvent, caseNotFound, readEventViews } from './events';
+export { appendEvent, appendResultJson, caseNotFound, readEventViews } from './events';
 export { listCases } from './list';
 export type { Actor } from './store';
 export type { OpenCase } from './cases';

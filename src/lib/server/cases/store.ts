@@ -20,6 +20,7 @@ const findCase = db
 		source: cases.source,
 		complaint: cases.complaint,
 		lastSeq: cases.lastSeq,
+		state: cases.state,
 		editionId: cases.editionId,
 		editionNumber: rulebookEditions.number,
 		editionPublishedAt: rulebookEditions.publishedAt,

@@ -8,6 +8,7 @@ import {
 	type CaseContact,
 	type RankingEntry
 } from '../../cases/model';
+import type { StoredCaseState } from '../../cases/answers';
 
 /** Seconds since the epoch; lucia's SQLite adapter stores session expiry this way too. */
 const createdAt = () =>
@@ -231,6 +232,9 @@ export const cases = sqliteTable(
 		lastSeq: integer('last_seq').notNull().default(0),
 		/** The ranking after the last event, best first (the full ranking is on the event). */
 		topCauses: text('top_causes', { mode: 'json' }).$type<RankingEntry[]>().notNull().default([]),
+		/** The answers derived from the events up to last_seq, kept so an append need not re-read
+		 * the timeline; null (or behind last_seq) means: derive it from the events. */
+		state: text('state', { mode: 'json' }).$type<StoredCaseState>(),
 		createdAt: createdAt(),
 		updatedAt: integer('updated_at', { mode: 'timestamp' })
 			.notNull()

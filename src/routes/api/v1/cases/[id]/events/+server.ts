@@ -1,6 +1,7 @@
 import { appendEventSchema, eventsQuerySchema } from '$lib/api/cases-schema';
 import {
 	appendEvent,
+	appendResultJson,
 	caseNotFound,
 	parseCaseRequest,
 	queryOf,
@@ -8,7 +9,7 @@ import {
 } from '$lib/server/cases';
 import { readCase } from '$lib/server/cases/store';
 import { authenticateApi } from '$lib/server/guard';
-import { apiHandler, json, readJsonBody } from '$lib/server/http';
+import { apiHandler, asciiJson, json, readJsonBody } from '$lib/server/http';
 import type { RequestHandler } from './$types';
 
 const BODY_LIMIT_BYTES = 16 * 1024;
@@ -30,5 +31,5 @@ export const POST: RequestHandler = apiHandler(async (event) => {
 		await readJsonBody(event.request, BODY_LIMIT_BYTES)
 	);
 	const result = await appendEvent(caller, event.params.id, input);
-	return json(result, { status: result.replayed ? 200 : 201 });
+	return asciiJson(appendResultJson(result), { status: result.replayed ? 200 : 201 });
 });
