@@ -195,6 +195,15 @@ describe('cases: the timeline', () => {
 			value: last.body.event.payload.value,
 			seq: 13
 		});
+		// The answers kept on the row (for appends) are those derived from the events (for reads).
+		const db = openServerDb();
+		const [row] = (
+			await db.execute({ sql: 'SELECT state, last_seq FROM cases WHERE id = ?', args: [c.case.id] })
+		).rows;
+		db.close();
+		const kept = JSON.parse(String(row.state));
+		expect(kept.seq).toBe(row.last_seq);
+		expect(kept.answers).toEqual(detail.answers);
 		const names = new Set(detail.timeline.slice(1).map((e) => e.by.name));
 		expect(names).toEqual(new Set(['Rowan Hale', 'Ines Marlow']));
 		expect(await eventCount(c.case.id)).toBe(13);
