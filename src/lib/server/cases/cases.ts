@@ -1,35 +1,18 @@
-// Cases: opening one (at the bay, through the API or from intake), a technician taking one from
-// the queue, and reading one with its vehicle, answers, timeline and diagnosis.
-import { and, desc, eq, gt, sql, type SQL } from 'drizzle-orm';
+// Opening a case: at the bay, through the diagnose API (saveAsCase) or from the intake form.
+import type { SQL } from 'drizzle-orm';
 import type { BatchItem } from 'drizzle-orm/batch';
-import { alias } from 'drizzle-orm/sqlite-core';
-import type { CaseDetail, CreateCase, VehicleInput } from '../../api/cases-schema';
+import type { CreateCase, VehicleInput } from '../../api/cases-schema';
 import type { DiagnoseRequest } from '../../diagnosis/api-schema';
-import {
-	applyEvent,
-	deriveCaseState,
-	emptyCaseState,
-	restoreCaseState,
-	storeCaseState,
-	type CaseState
-} from '../../cases/answers';
+import { applyEvent, emptyCaseState, storeCaseState } from '../../cases/answers';
 import type { CaseContact, CaseSource, OdometerUnit } from '../../cases/model';
 import { db } from '../db';
-import { caseEvents, cases, rulebookEditions, users, vehicles } from '../db/schema';
+import { cases } from '../db/schema';
 import { generateId } from '../auth/crypto';
-import { getCompiledEdition, publishedEditionsOf, type PublishedEdition } from '../editions';
+import type { PublishedEdition } from '../editions';
 import { AppError } from '../errors';
-import { caseNotFound, pendingSuggestions, readEventViews } from './events';
 import { scoreCase } from './scoring';
-import {
-	eventInsert,
-	isUniqueViolation,
-	readCase,
-	readTimeline,
-	TOP_CAUSES_ON_CASE,
-	type Actor
-} from './store';
-import { findVehicle, vehicleColumns, vehicleStatements } from './vehicles';
+import { eventInsert, TOP_CAUSES_ON_CASE, type Actor } from './store';
+import { findVehicle, vehicleStatements } from './vehicles';
 
 export type OpenCase = {
 	status: 'waiting' | 'open';
@@ -145,142 +128,4 @@ export function saveDiagnoseAsCase(
 		observations: request.observations,
 		unknown: request.unknown
 	});
-}
-
-/** A technician takes a waiting case: it opens, assigned to them, with a `case_taken` event. */
-export async function takeCase(
-	actor: Actor & { userId: string },
-	caseId: string,
-	clientEventId = `taken-${generateId()}`,
-	now = new Date()
-): Promise<void> {
-	const row = await readCase(actor, caseId);
-	if (!row) throw caseNotFound();
-	const [replay] = await db
-		.select({ seq: caseEvents.seq })
-		.from(caseEvents)
-		.where(and(eq(caseEvents.caseId, caseId), eq(caseEvents.clientEventId, clientEventId)));
-	if (replay) return;
-	if (row.status !== 'waiting') {
-		throw new AppError('conflict', `The case is ${row.status}, not waiting to be taken.`);
-	}
-	const [last] = await db
-		.select({ ranking: caseEvents.ranking })
-		.from(caseEvents)
-		.where(and(eq(caseEvents.caseId, caseId), eq(caseEvents.seq, row.lastSeq)));
-	const seq = row.lastSeq + 1;
-	try {
-		await db.batch([
-			eventInsert({
-				shopId: row.shopId,
-				caseId,
-				seq,
-				clientEventId,
-				kind: 'case_taken',
-				payload: { assignee: actor.userId },
-				ranking: last?.ranking ?? [],
-				editionId: row.editionId,
-				actorUserId: actor.userId,
-				apiKeyId: null,
-				createdAt: now
-			}),
-			db
-				.update(cases)
-				.set({
-					status: 'open',
-					assignedTo: actor.userId,
-					lastSeq: seq,
-					// Taking changes no answer: the kept state moves on to the new event, if it was current.
-					state: storeState(restoreCaseState(row.state, row.lastSeq), seq),
-					updatedAt: now
-				})
-				.where(and(eq(cases.id, caseId), eq(cases.lastSeq, row.lastSeq)))
-		]);
-	} catch (error) {
-		if (isUniqueViolation(error)) {
-			throw new AppError('conflict', 'Someone else changed the case at the same moment.');
-		}
-		throw error;
-	}
-}
-
-const storeState = (state: CaseState | null, seq: number) =>
-	state ? storeCaseState(state, seq) : null;
-
-const person = (id: string | null, name: string | null) => (id ? { id, name: name ?? '' } : null);
-
-async function readCaseRecord(shopId: string, caseId: string) {
-	const assignee = alias(users, 'assignee');
-	const [row] = await db
-		.select({
-			case: cases,
-			vehicle: vehicleColumns,
-			assigneeName: assignee.name,
-			openerName: users.name
-		})
-		.from(cases)
-		.leftJoin(vehicles, eq(vehicles.id, cases.vehicleId))
-		.leftJoin(assignee, eq(assignee.id, cases.assignedTo))
-		.leftJoin(users, eq(users.id, cases.createdBy))
-		.where(and(eq(cases.id, caseId), eq(cases.shopId, shopId)));
-	return row;
-}
-
-async function newerEditionNumber(shopId: string, number: number) {
-	const [newest] = await db
-		.select({ number: rulebookEditions.number })
-		.from(rulebookEditions)
-		.where(and(publishedEditionsOf(sql`${shopId}`), gt(rulebookEditions.number, number)))
-		.orderBy(desc(rulebookEditions.number))
-		.limit(1);
-	return newest ? { number: newest.number } : null;
-}
-
-/** GET /api/v1/cases/{id}: everything the case page shows. */
-export async function getCaseDetail(actor: Actor, caseId: string): Promise<CaseDetail> {
-	const row = await readCase(actor, caseId);
-	const record = row && (await readCaseRecord(actor.shopId, caseId));
-	if (!row || !record) throw caseNotFound();
-	const c = record.case;
-	const edition = await getCompiledEdition(actor.shopId, {
-		id: row.editionId,
-		number: row.editionNumber,
-		publishedAt: row.editionPublishedAt
-	});
-	const [timeline, events] = await Promise.all([readTimeline(caseId), readEventViews(caseId)]);
-	const state = deriveCaseState(timeline);
-	const { diagnosis } = await scoreCase(edition, state, { testSteps: true });
-	return {
-		case: {
-			id: c.id,
-			status: c.status,
-			source: c.source,
-			complaint: c.complaint,
-			vehicle: record.vehicle?.id ? record.vehicle : null,
-			assignee: person(c.assignedTo, record.assigneeName),
-			openedBy: person(c.createdBy, record.openerName),
-			topCauses: c.topCauses,
-			lastSeq: c.lastSeq,
-			odometer:
-				c.odometerValue === null || !c.odometerUnit
-					? null
-					: { value: c.odometerValue, unit: c.odometerUnit },
-			contact: c.contact,
-			edition: {
-				number: row.editionNumber,
-				publishedAt: row.editionPublishedAt?.toISOString() ?? null
-			},
-			newerEdition: await newerEditionNumber(actor.shopId, row.editionNumber),
-			createdAt: c.createdAt.toISOString(),
-			updatedAt: c.updatedAt.toISOString()
-		},
-		answers: [...state.answers.values()],
-		notSure: [...state.notSure],
-		suggestions: pendingSuggestions(edition, c.complaint, state),
-		ticks: Object.fromEntries(
-			[...state.ticks].map(([test, steps]) => [test, [...steps].sort((a, b) => a - b)])
-		),
-		timeline: events,
-		diagnosis
-	};
 }

@@ -1,6 +1,6 @@
-// The case timeline: appending one event (idempotent by its client id, ordered by the server,
-// re-ranked with the case's edition) and reading events as the API shows them.
-import { and, asc, desc, eq, gt, sql } from 'drizzle-orm';
+// The case timeline: appending one event, idempotent by its client id, ordered by the server and
+// re-ranked with the case's edition.
+import { and, desc, eq, sql } from 'drizzle-orm';
 import type { AppendEvent, CaseEventView } from '../../api/cases-schema';
 import {
 	applyEvent,
@@ -11,11 +11,12 @@ import {
 } from '../../cases/answers';
 import { toAsciiJson, type ResponseSerializer } from '../../diagnosis/response-json';
 import { db } from '../db';
-import { caseEvents, cases, rulebookEditions, users } from '../db/schema';
+import { cases, rulebookEditions } from '../db/schema';
 import { getCompiledEdition, publishedEditionsOf, type PublishedEdition } from '../editions';
 import { AppError } from '../errors';
 import { scoreCase, type CaseDiagnosis } from './scoring';
 import {
+	caseNotFound,
 	eventInsert,
 	isUniqueViolation,
 	MAX_EVENTS_PER_CASE,
@@ -26,57 +27,10 @@ import {
 	type CaseRow
 } from './store';
 import { checkEvent } from './validate-event';
+import { readEventView } from './event-views';
 
 /** Two devices appending to one case at the same moment: the loser re-reads and tries again. */
 const MAX_APPEND_ATTEMPTS = 8;
-
-export const caseNotFound = () => new AppError('not_found', 'There is no such case in this shop.');
-
-const eventViewColumns = {
-	id: caseEvents.clientEventId,
-	seq: caseEvents.seq,
-	kind: caseEvents.kind,
-	payload: caseEvents.payload,
-	ranking: caseEvents.ranking,
-	edition: rulebookEditions.number,
-	byId: users.id,
-	byName: users.name,
-	createdAt: caseEvents.createdAt
-};
-
-type EventViewRow = { byId: string | null; byName: string | null; createdAt: Date } & Omit<
-	CaseEventView,
-	'by' | 'at'
->;
-
-const toView = ({ byId, byName, createdAt, ...event }: EventViewRow): CaseEventView => ({
-	...event,
-	by: byId ? { id: byId, name: byName ?? '' } : null,
-	at: createdAt.toISOString()
-});
-
-/** The case's events after `afterSeq`, in server order, as the API shows them. */
-export async function readEventViews(caseId: string, afterSeq = 0): Promise<CaseEventView[]> {
-	const rows = await db
-		.select(eventViewColumns)
-		.from(caseEvents)
-		.innerJoin(rulebookEditions, eq(rulebookEditions.id, caseEvents.editionId))
-		.leftJoin(users, eq(users.id, caseEvents.actorUserId))
-		.where(and(eq(caseEvents.caseId, caseId), gt(caseEvents.seq, afterSeq)))
-		.orderBy(asc(caseEvents.seq))
-		.limit(MAX_EVENTS_PER_CASE);
-	return rows.map(toView);
-}
-
-async function readEventView(caseId: string, clientEventId: string) {
-	const [row] = await db
-		.select(eventViewColumns)
-		.from(caseEvents)
-		.innerJoin(rulebookEditions, eq(rulebookEditions.id, caseEvents.editionId))
-		.leftJoin(users, eq(users.id, caseEvents.actorUserId))
-		.where(and(eq(caseEvents.caseId, caseId), eq(caseEvents.clientEventId, clientEventId)));
-	return row ? toView(row) : undefined;
-}
 
 /** For `rescored`: the shop's newest published edition, which must be the one asked for. */
 async function rescoreTarget(row: CaseRow, toEdition: number): Promise<PublishedEdition> {

@@ -4,8 +4,12 @@ import type { z } from 'zod';
 import { AppError } from '../errors';
 import { zodIssues } from '../http';
 
-export { createCase, getCaseDetail, openCase, saveDiagnoseAsCase, takeCase } from './cases';
-export { appendEvent, appendResultJson, caseNotFound, readEventViews } from './events';
+export { createCase, openCase, saveDiagnoseAsCase } from './cases';
+export { getCaseDetail } from './detail';
+export { takeCase } from './take';
+export { appendEvent, appendResultJson } from './events';
+export { listEventsAfter } from './event-views';
+export { caseNotFound } from './store';
 export { listCases } from './list';
 export type { Actor } from './store';
 export type { OpenCase } from './cases';

@@ -5,9 +5,12 @@ import type { TimelineEvent } from '../../cases/answers';
 import { db } from '../db';
 import { caseEvents, cases, rulebookEditions, users } from '../db/schema';
 import { generateId } from '../auth/crypto';
+import { AppError } from '../errors';
 
 /** Who is acting: a person of the shop, or (for intake) an API key or nobody. */
 export type Actor = { shopId: string; userId: string | null; apiKeyId: string | null };
+
+export const caseNotFound = () => new AppError('not_found', 'There is no such case in this shop.');
 
 /** A case can hold this many events; past it, appends are refused (a bound on every read). */
 export const MAX_EVENTS_PER_CASE = 5000;

@@ -2,12 +2,10 @@ import { appendEventSchema, eventsQuerySchema } from '$lib/api/cases-schema';
 import {
 	appendEvent,
 	appendResultJson,
-	caseNotFound,
 	parseCaseRequest,
 	queryOf,
-	readEventViews
+	listEventsAfter
 } from '$lib/server/cases';
-import { readCase } from '$lib/server/cases/store';
 import { authenticateApi } from '$lib/server/guard';
 import { apiHandler, asciiJson, json, readJsonBody } from '$lib/server/http';
 import type { RequestHandler } from './$types';
@@ -18,10 +16,7 @@ const BODY_LIMIT_BYTES = 16 * 1024;
 export const GET: RequestHandler = apiHandler(async (event) => {
 	const caller = await authenticateApi(event, 'cases:read');
 	const { after } = parseCaseRequest(eventsQuerySchema, queryOf(event.url));
-	const row = await readCase(caller, event.params.id);
-	if (!row) throw caseNotFound();
-	const events = await readEventViews(row.id, after);
-	return json({ events, lastSeq: row.lastSeq, status: row.status });
+	return json(await listEventsAfter(caller, event.params.id, after));
 });
 
 export const POST: RequestHandler = apiHandler(async (event) => {
