@@ -118,7 +118,7 @@ export const eventPayloadSchemas = {
 	test_result_recorded: z.strictObject({ test: testKeySchema, value: answerValueSchema }),
 	note: z.strictObject({ text: shortText(MAX_NOTE_CHARS) }),
 	rescored: z.strictObject({
-		toEdition: z.number().int().min(1).meta({
+		toEdition: z.number().int().min(1).max(1_000_000).meta({
 			description: 'Number of the shop’s newest published edition, which the case moves to.'
 		})
 	})
@@ -178,7 +178,7 @@ export const listCasesQuerySchema = z.strictObject({
 });
 
 export const eventsQuerySchema = z.strictObject({
-	after: z.coerce.number().int().min(0).default(0).meta({
+	after: z.coerce.number().int().min(0).max(1_000_000_000).default(0).meta({
 		description: 'Only events with a higher sequence number (the last one a device has seen).'
 	})
 });
