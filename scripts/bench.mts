@@ -319,6 +319,115 @@ async function benchApi(base: Rulebook): Promise<boolean> {
 	}
 }
 
-const base = await benchEngine();
-await benchRequestWork(base);
-if (!process.argv.includes('--engine-only') && !(await benchApi(base))) process.exitCode = 1;
+// --- Case timeline: appending an answer at the bay -------------------------------------------
+
+/** Valid answers to append, taken in turn so the ranking moves with each one. */
+const CASE_ANSWERS: [string, Value][] = [
+	['temp_gauge', 'high_at_idle'],
+	['fan_runs_when_hot', false],
+	['coolant_level', 'low'],
+	['temp_gauge', 'normal'],
+	['sweet_smell', 'cabin'],
+	['fan_runs_when_hot', true],
+	['coolant_level', 'full'],
+	['exhaust_smoke', 'white_persistent']
+];
+
+/**
+ * 10 technicians at once, each on a case of their own (one autocannon connection per case and
+ * session), appending an answer and receiving the new ranking, in turns with GET /api/health.
+ * Every session belongs to the demo technician: the work per request is the same as for ten people.
+ */
+async function benchCaseAppends() {
+	const { Client } = await import('../tests/support/client');
+	if (!existsSync('build/index.js')) throw new Error('no build: run npx vite build first');
+	const server = await startServer({
+		name: 'bench-cases',
+		env: {
+			CAUSEWAY_SEED_DEMO: '1',
+			DEMO_PASSWORD: 'bench-demo-password',
+			API_RATE_LIMIT_PER_MINUTE: '100000000',
+			API_IP_RATE_LIMIT_PER_MINUTE: '100000000'
+		}
+	});
+	try {
+		const technicians = [];
+		for (let i = 0; i < 10; i++) {
+			const client = new Client(server.baseUrl);
+			await client.signIn('tech@saltmarsh.example', 'bench-demo-password');
+			const opened = await client.json('/api/v1/cases', { vehicle: { plate: `BENCH${i}` } });
+			if (opened.status !== 201) throw new Error(`opening a case failed: ${opened.status}`);
+			const cookie = [...client.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
+			technicians.push({ path: `/api/v1/cases/${opened.body.case.id}/events`, cookie });
+		}
+		let connections = 0;
+		let sent = 0;
+		const append = () =>
+			load(server.baseUrl, {
+				requests: [
+					{
+						method: 'POST',
+						setupRequest: (request, context: { technician?: number }) => {
+							context.technician ??= connections++ % technicians.length;
+							const { path, cookie } = technicians[context.technician];
+							const [key, value] = CASE_ANSWERS[sent++ % CASE_ANSWERS.length];
+							return {
+								...request,
+								path,
+								headers: { cookie, 'content-type': 'application/json' },
+								body: JSON.stringify({
+									id: crypto.randomUUID(),
+									kind: 'answer_set',
+									payload: { key, value }
+								})
+							};
+						}
+					}
+				]
+			});
+		// What a second device polls to follow a case: the session, the case row, no new events.
+		const poll = () =>
+			load(server.baseUrl, {
+				requests: [
+					{
+						method: 'GET',
+						setupRequest: (request, context: { technician?: number }) => {
+							context.technician ??= connections++ % technicians.length;
+							const { path, cookie } = technicians[context.technician];
+							return { ...request, path: `${path}?after=1000000`, headers: { cookie } };
+						}
+					}
+				]
+			});
+		await append(); // warm-up: JIT, compiled edition, prepared statements
+		const runs: Record<string, LoadResult[]> = {};
+		for (let round = 0; round < ROUNDS; round++) {
+			(runs['GET /api/health'] ??= []).push(await load(`${server.baseUrl}/api/health`, {}));
+			(runs['GET /api/v1/cases/{id}/events?after= (poll, nothing new)'] ??= []).push(await poll());
+			(runs['POST /api/v1/cases/{id}/events'] ??= []).push(await append());
+		}
+		console.log(
+			`\nCase timeline: 10 technicians on 10 cases appending an answer (session cookies), ${ROUNDS} rounds of ${DURATION_S} s taken in turn with health (medians)`
+		);
+		console.table(
+			Object.fromEntries(Object.entries(runs).map(([name, results]) => [name, summarise(results)]))
+		);
+		const events = runs['POST /api/v1/cases/{id}/events'].reduce((n, r) => n + r.requests, 0);
+		console.log(
+			`Each case held about ${Math.round(events / technicians.length)} events by the end (an append reads the answers kept on the case row, not the timeline).`
+		);
+	} finally {
+		await server.stop();
+	}
+}
+
+if (process.argv.includes('--cases-only')) {
+	await benchCaseAppends();
+} else {
+	const base = await benchEngine();
+	await benchRequestWork(base);
+	if (!process.argv.includes('--engine-only')) {
+		if (!(await benchApi(base))) process.exitCode = 1;
+		await benchCaseAppends();
+	}
+}

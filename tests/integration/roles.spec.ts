@@ -86,6 +86,30 @@ describe('role × API matrix', () => {
 			expect(res.status).toBe(200);
 		});
 	}
+	const CASE_WRITERS: Role[] = ['technician', 'lead', 'admin'];
+	for (const role of ROLES) {
+		it(`GET /api/v1/cases with a ${role}'s session gets 200`, async () => {
+			expect((await clients[role].get('/api/v1/cases?limit=1')).status).toBe(200);
+		});
+		const writes = CASE_WRITERS.includes(role);
+		it(`case writes with a ${role}'s session are ${writes ? 'let through to validation' : 'refused with 403'}`, async () => {
+			const [demoCase] = (await (await clients.technician.get('/api/v1/cases?limit=1')).json())
+				.cases as { id: string }[];
+			const base = `/api/v1/cases/${demoCase.id}`;
+			// A body that fails the schema: allowed roles get 400, refused roles 403 before it is read.
+			const statuses = [
+				(await clients[role].json('/api/v1/cases', { vehicle: {} })).status,
+				(await clients[role].json(`${base}/events`, { id: 'x' })).status,
+				(await clients[role].json(`${base}/take`, { id: 'x' })).status
+			];
+			expect(statuses).toEqual(Array(3).fill(writes ? 400 : 403));
+		});
+	}
+	it('the case API without a session gets 401; the hosted intake form needs no sign-in', async () => {
+		expect((await newClient().get('/api/v1/cases')).status).toBe(401);
+		expect((await newClient().json('/api/v1/cases', {})).status).toBe(401);
+		expect((await newClient().get('/intake/saltmarsh-lane')).status).toBe(200);
+	});
 	it('POST /api/v1/diagnose without a session or key gets 401 in the contract shape', async () => {
 		const res = await newClient().json('/api/v1/diagnose', { observations: {} });
 		expect(res.status).toBe(401);

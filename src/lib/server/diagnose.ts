@@ -1,8 +1,6 @@
 import { shapeDiagnosis } from '../api/diagnosis-response';
 import { diagnoseRequestSchema, type DiagnoseRequest } from '../api/schema';
-import { db } from './db';
-import { cases } from './db/schema';
-import { generateId } from './auth/crypto';
+import { saveDiagnoseAsCase } from './cases/cases';
 import { getPublishedEdition } from './editions';
 import { AppError } from './errors';
 import { zodIssues } from './http';
@@ -54,20 +52,7 @@ export async function diagnoseForShop(caller: ApiCaller, request: DiagnoseReques
 	const diagnosis = shapeDiagnosis(analysis, { testSteps: false });
 	let caseId: string | null = null;
 	if (request.saveAsCase) {
-		caseId = generateId();
-		await db.insert(cases).values({
-			id: caseId,
-			shopId: caller.shopId,
-			editionId: edition.id,
-			source: caller.apiKeyId ? 'api' : 'bay',
-			createdBy: caller.userId,
-			apiKeyId: caller.apiKeyId,
-			vehicle: request.vehicle ?? null,
-			complaint: request.complaint ?? null,
-			observations: request.observations,
-			unknown: request.unknown ?? [],
-			result: { causes: diagnosis.causes.map(({ key, probability }) => ({ key, probability })) }
-		});
+		caseId = await saveDiagnoseAsCase(caller, edition, request);
 	}
 	const response = {
 		rulebook: { edition: edition.number, publishedAt: edition.publishedAt?.toISOString() ?? null },

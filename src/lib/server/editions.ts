@@ -179,3 +179,14 @@ export async function listEditions(shopId: string) {
 		.where(eq(rulebookEditions.shopId, shopId))
 		.orderBy(desc(rulebookEditions.number));
 }
+
+/**
+ * The compiled diagnoser of one edition whose row the caller has read (a case keeps the edition
+ * it was scored with, published or since retired), from the same cache.
+ */
+export function getCaseEdition(
+	shopId: string,
+	row: PublishedEditionRow
+): Promise<PublishedEdition> {
+	return getPublishedEdition(shopId, row);
+}

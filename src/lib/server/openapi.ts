@@ -2,6 +2,17 @@ import { z } from 'zod';
 import { apiErrorSchema, diagnoseRequestSchema, diagnoseResponseSchema } from '../api/schema';
 import { ERROR_CODES, ERROR_STATUS, type ApiErrorCode } from '../api/error-codes';
 import { calculatorNames, calculatorResultSchema, calculators } from '../calculators';
+import {
+	appendEventResponseSchema,
+	appendEventSchema,
+	caseDetailSchema,
+	caseListSchema,
+	createCaseSchema,
+	eventListSchema,
+	eventsQuerySchema,
+	listCasesQuerySchema,
+	takeCaseSchema
+} from '../api/cases-schema';
 
 const schema = (s: z.ZodType, io: 'input' | 'output') =>
 	z.toJSONSchema(s, { target: 'draft-2020-12', io, unrepresentable: 'any' });
@@ -88,6 +99,184 @@ function describeCalculatorInputs(): Record<string, unknown> {
 	);
 }
 
+const ref = (name: string) => ({ $ref: `#/components/schemas/${name}` });
+const jsonBody = (name: string, required = true) => ({
+	required,
+	content: { 'application/json': { schema: ref(name) } }
+});
+const jsonAnswer = (description: string, name: string) => ({
+	description,
+	content: { 'application/json': { schema: ref(name) } }
+});
+
+/** Query parameters from a zod object schema, each with its own description. */
+function queryParameters(s: z.ZodType) {
+	const json = schema(s, 'input') as {
+		properties: Record<string, { description?: string }>;
+		required?: string[];
+	};
+	return Object.entries(json.properties).map(([name, property]) => ({
+		name,
+		in: 'query',
+		required: json.required?.includes(name) ?? false,
+		description: property.description,
+		schema: property
+	}));
+}
+
+const caseIdParameter = {
+	name: 'id',
+	in: 'path',
+	required: true,
+	schema: { type: 'string' },
+	description: 'The case id.'
+};
+
+/** Errors every case endpoint shares. */
+const caseErrors = {
+	...COMMON_ERRORS,
+	unauthenticated: 'No session (API keys may not read or change cases)',
+	forbidden: 'The role may not do this, or an API key was sent',
+	rate_limited: 'Over the per-user or per-IP limit; see Retry-After'
+} as const;
+const notFound = 'No such case in the caller’s shop (also for another shop’s ids)';
+
+/**
+ * The case API's schemas as components: the definitions zod puts under each schema's own `$defs`
+ * (every schema with an id) become components of their own, referred to as
+ * `#/components/schemas/…`, which resolves from the document's root where `#/$defs/…` does not.
+ * An id whose input and output shapes differ gets an `Input` twin.
+ */
+function caseComponents(): Record<string, unknown> {
+	const entries: [string, z.ZodType, 'input' | 'output'][] = [
+		['CreateCase', createCaseSchema, 'input'],
+		['AppendEvent', appendEventSchema, 'input'],
+		['TakeCase', takeCaseSchema, 'input'],
+		['CaseDetail', caseDetailSchema, 'output'],
+		['CaseList', caseListSchema, 'output'],
+		['CaseEventList', eventListSchema, 'output'],
+		['AppendEventResponse', appendEventResponseSchema, 'output']
+	];
+	const components: Record<string, unknown> = {};
+	for (const [, s, io] of entries) {
+		const { $defs = {} } = schema(s, io) as { $defs?: Record<string, unknown> };
+		const names = Object.fromEntries(
+			Object.entries($defs).map(([id, def]) => {
+				const text = JSON.stringify(def);
+				const taken = components[id] !== undefined && JSON.stringify(components[id]) !== text;
+				return [id, taken && io === 'input' ? `${id}Input` : id];
+			})
+		);
+		for (const [id, def] of Object.entries($defs)) {
+			const text = JSON.stringify(def).replace(
+				/"#\/\$defs\/([^"]+)"/g,
+				(_, ref: string) => `"#/components/schemas/${names[ref] ?? ref}"`
+			);
+			components[names[id]] ??= JSON.parse(text);
+		}
+	}
+	return components;
+}
+
+function describeCasePaths(): Record<string, unknown> {
+	const tags = ['cases'];
+	return {
+		'/api/v1/cases': {
+			get: {
+				operationId: 'listCases',
+				summary: 'List the shop’s cases, newest first, with filters and a cursor',
+				tags,
+				parameters: queryParameters(listCasesQuerySchema),
+				responses: {
+					'200': jsonAnswer('One page of cases and the cursor of the next', 'CaseList'),
+					...errorResponses({
+						...caseErrors,
+						invalid_request: 'Unknown parameter, bad status or cursor'
+					})
+				}
+			},
+			post: {
+				operationId: 'createCase',
+				summary: 'Open a case on a vehicle (by id or described), scored with the published edition',
+				tags,
+				requestBody: jsonBody('CreateCase'),
+				responses: {
+					'201': jsonAnswer('The case as GET /api/v1/cases/{id} shows it', 'CaseDetail'),
+					...errorResponses({
+						...caseErrors,
+						invalid_request: 'Fails the schema, bad VIN, unknown vehicle or observation',
+						too_large: 'Body over 64 KiB',
+						unsupported_media_type: 'Body not sent as application/json'
+					})
+				}
+			}
+		},
+		'/api/v1/cases/{id}': {
+			get: {
+				operationId: 'getCase',
+				summary: 'The case with its vehicle, answers, timeline and current diagnosis',
+				tags,
+				parameters: [caseIdParameter],
+				responses: {
+					'200': jsonAnswer('The case', 'CaseDetail'),
+					...errorResponses({ ...caseErrors, not_found: notFound })
+				}
+			}
+		},
+		'/api/v1/cases/{id}/events': {
+			get: {
+				operationId: 'listCaseEvents',
+				summary: 'The case’s events after a sequence number (for following a case)',
+				tags,
+				parameters: [caseIdParameter, ...queryParameters(eventsQuerySchema)],
+				responses: {
+					'200': jsonAnswer('Events in server order', 'CaseEventList'),
+					...errorResponses({ ...caseErrors, not_found: notFound })
+				}
+			},
+			post: {
+				operationId: 'appendCaseEvent',
+				summary: 'Append one event to an open case and get the new ranking',
+				tags,
+				parameters: [caseIdParameter],
+				requestBody: jsonBody('AppendEvent'),
+				responses: {
+					'201': jsonAnswer('The stored event and the diagnosis after it', 'AppendEventResponse'),
+					'200': jsonAnswer(
+						'A replayed event id: the stored event, nothing added',
+						'AppendEventResponse'
+					),
+					...errorResponses({
+						...caseErrors,
+						invalid_request: 'Fails the schema, unknown observation or test, wrong value',
+						not_found: notFound,
+						conflict: 'The case is not open, or the edition to rescore on is not the newest',
+						too_large: 'Body over 16 KiB',
+						unsupported_media_type: 'Body not sent as application/json'
+					})
+				}
+			}
+		},
+		'/api/v1/cases/{id}/take': {
+			post: {
+				operationId: 'takeCase',
+				summary: 'Take a waiting case: it opens, assigned to the caller',
+				tags,
+				parameters: [caseIdParameter],
+				requestBody: jsonBody('TakeCase', false),
+				responses: {
+					'200': jsonAnswer('The case, now open', 'CaseDetail'),
+					...errorResponses({
+						...caseErrors,
+						not_found: notFound,
+						conflict: 'The case is not waiting'
+					})
+				}
+			}
+		}
+	};
+}
+
 /**
  * OpenAPI 3.1 for the v1 API, generated from the same zod schemas that validate requests, so the
  * published contract cannot drift from the code.
@@ -146,6 +335,7 @@ export function getOpenApiDocument(): Record<string, unknown> {
 				}
 			},
 			...describeCalculatorPaths(),
+			...describeCasePaths(),
 			'/api/health': {
 				get: {
 					operationId: 'health',
@@ -165,7 +355,8 @@ export function getOpenApiDocument(): Record<string, unknown> {
 				DiagnoseResponse: schema(diagnoseResponseSchema, 'output'),
 				Error: schema(apiErrorSchema, 'output'),
 				CalculatorResult: schema(calculatorResultSchema, 'output'),
-				...describeCalculatorInputs()
+				...describeCalculatorInputs(),
+				...caseComponents()
 			}
 		}
 	};

@@ -10,6 +10,7 @@ const PERMISSIONS = {
 	'diagnose:use': ['technician', 'lead', 'manager', 'admin'],
 	'calculators:use': ['technician', 'lead', 'manager', 'admin'],
 	'cases:work': ['technician', 'lead', 'admin'],
+	'cases:read': ['technician', 'lead', 'manager', 'admin'],
 	'rulebook:view': ['lead', 'manager', 'admin'],
 	'rulebook:edit': ['lead', 'admin'],
 	'casebook:review': ['manager', 'admin'],

@@ -1,5 +1,14 @@
 import { sql } from 'drizzle-orm';
-import { index, integer, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import { index, integer, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import {
+	CASE_SOURCES,
+	CASE_STATUSES,
+	EVENT_KINDS,
+	ODOMETER_UNITS,
+	type CaseContact,
+	type RankingEntry
+} from '../../cases/model';
+import type { StoredCaseState } from '../../cases/answers';
 
 /** Seconds since the epoch; lucia's SQLite adapter stores session expiry this way too. */
 const createdAt = () =>
@@ -15,13 +24,19 @@ export type ShopSettings = {
 	coolant?: { firstChangeKm: number; thenEveryKm: number; everyMonths: number };
 };
 
-export const shops = sqliteTable('shops', {
-	id: text('id').primaryKey(),
-	name: text('name').notNull(),
-	settings: text('settings', { mode: 'json' }).$type<ShopSettings>().notNull().default({}),
-	isDemo: integer('is_demo', { mode: 'boolean' }).notNull().default(false),
-	createdAt: createdAt()
-});
+export const shops = sqliteTable(
+	'shops',
+	{
+		id: text('id').primaryKey(),
+		name: text('name').notNull(),
+		/** Public name in the hosted intake form's address (/intake/<slug>); none: no hosted form. */
+		slug: text('slug'),
+		settings: text('settings', { mode: 'json' }).$type<ShopSettings>().notNull().default({}),
+		isDemo: integer('is_demo', { mode: 'boolean' }).notNull().default(false),
+		createdAt: createdAt()
+	},
+	(t) => [uniqueIndex('shops_slug_unique').on(t.slug)]
+);
 
 export const users = sqliteTable(
 	'users',
@@ -167,7 +182,29 @@ export const rulebookEditions = sqliteTable(
 	(t) => [uniqueIndex('editions_shop_number_unique').on(t.shopId, t.number)]
 );
 
-export const CASE_STATUSES = ['open', 'closed'] as const;
+/** A shop's vehicle; one per VIN per shop (vehicles without a VIN are told apart by plate). */
+export const vehicles = sqliteTable(
+	'vehicles',
+	{
+		id: text('id').primaryKey(),
+		shopId: text('shop_id')
+			.notNull()
+			.references(() => shops.id),
+		/** Upper case, check digit verified (49 CFR 565). */
+		vin: text('vin'),
+		/** Registration plate or the fleet's own number, upper case without spaces. */
+		plate: text('plate'),
+		year: integer('year'),
+		make: text('make'),
+		model: text('model'),
+		engine: text('engine'),
+		createdAt: createdAt()
+	},
+	(t) => [
+		uniqueIndex('vehicles_shop_vin_unique').on(t.shopId, t.vin),
+		index('vehicles_shop_plate_idx').on(t.shopId, t.plate)
+	]
+);
 
 export const cases = sqliteTable(
 	'cases',
@@ -176,24 +213,79 @@ export const cases = sqliteTable(
 		shopId: text('shop_id')
 			.notNull()
 			.references(() => shops.id),
+		/** The edition the case is scored with; changed only by a recorded `rescored` event. */
 		editionId: text('edition_id')
 			.notNull()
 			.references(() => rulebookEditions.id),
-		status: text('status', { enum: CASE_STATUSES }).notNull().default('open'),
-		source: text('source', { enum: ['bay', 'api'] }).notNull(),
+		status: text('status', { enum: CASE_STATUSES }).notNull().default('waiting'),
+		source: text('source', { enum: CASE_SOURCES }).notNull(),
 		createdBy: text('created_by').references(() => users.id),
 		apiKeyId: text('api_key_id').references(() => apiKeys.id),
-		vehicle: text('vehicle', { mode: 'json' }).$type<Record<string, unknown>>(),
+		/** Null only for an intake case that arrived without vehicle details. */
+		vehicleId: text('vehicle_id').references(() => vehicles.id),
+		odometerValue: real('odometer_value'),
+		odometerUnit: text('odometer_unit', { enum: ODOMETER_UNITS }),
 		complaint: text('complaint'),
-		observations: text('observations', { mode: 'json' }).$type<Record<string, unknown>>().notNull(),
-		unknown: text('unknown', { mode: 'json' }).$type<string[]>().notNull().default([]),
-		result: text('result', { mode: 'json' }).$type<Record<string, unknown>>(),
-		createdAt: createdAt()
+		contact: text('contact', { mode: 'json' }).$type<CaseContact>(),
+		assignedTo: text('assigned_to').references(() => users.id),
+		/** Sequence number of the case's last event; the next event takes the one after. */
+		lastSeq: integer('last_seq').notNull().default(0),
+		/** The ranking after the last event, best first (the full ranking is on the event). */
+		topCauses: text('top_causes', { mode: 'json' }).$type<RankingEntry[]>().notNull().default([]),
+		/** The answers derived from the events up to last_seq, kept so an append need not re-read
+		 * the timeline; null (or behind last_seq) means: derive it from the events. */
+		state: text('state', { mode: 'json' }).$type<StoredCaseState>(),
+		createdAt: createdAt(),
+		updatedAt: integer('updated_at', { mode: 'timestamp' })
+			.notNull()
+			.default(sql`(unixepoch())`)
 	},
-	(t) => [index('cases_shop_idx').on(t.shopId, t.createdAt)]
+	(t) => [
+		index('cases_shop_idx').on(t.shopId, t.createdAt),
+		index('cases_shop_status_idx').on(t.shopId, t.status, t.createdAt),
+		index('cases_vehicle_idx').on(t.vehicleId)
+	]
+);
+
+/**
+ * The case timeline, append-only. `seq` is the server's order within the case (1, 2, 3 …; the
+ * unique index makes concurrent appends retry instead of interleave); `clientEventId` is made
+ * by the device, so a replayed append finds the stored event instead of adding a duplicate.
+ */
+export const caseEvents = sqliteTable(
+	'case_events',
+	{
+		id: text('id').primaryKey(),
+		shopId: text('shop_id')
+			.notNull()
+			.references(() => shops.id),
+		caseId: text('case_id')
+			.notNull()
+			.references(() => cases.id),
+		seq: integer('seq').notNull(),
+		clientEventId: text('client_event_id').notNull(),
+		kind: text('kind', { enum: EVENT_KINDS }).notNull(),
+		payload: text('payload', { mode: 'json' }).$type<Record<string, unknown>>().notNull(),
+		/** Every cause's probability after this event, best first. */
+		ranking: text('ranking', { mode: 'json' }).$type<RankingEntry[]>().notNull(),
+		/** The edition the ranking was scored with. */
+		editionId: text('edition_id')
+			.notNull()
+			.references(() => rulebookEditions.id),
+		actorUserId: text('actor_user_id').references(() => users.id),
+		apiKeyId: text('api_key_id').references(() => apiKeys.id),
+		createdAt: integer('created_at', { mode: 'timestamp_ms' }).notNull()
+	},
+	(t) => [
+		uniqueIndex('case_events_case_seq_unique').on(t.caseId, t.seq),
+		uniqueIndex('case_events_case_client_id_unique').on(t.caseId, t.clientEventId)
+	]
 );
 
 export type Shop = typeof shops.$inferSelect;
 export type User = typeof users.$inferSelect;
 export type ApiKey = typeof apiKeys.$inferSelect;
 export type RulebookEdition = typeof rulebookEditions.$inferSelect;
+export type Vehicle = typeof vehicles.$inferSelect;
+export type Case = typeof cases.$inferSelect;
+export type CaseEvent = typeof caseEvents.$inferSelect;
