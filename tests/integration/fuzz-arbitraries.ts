@@ -162,6 +162,8 @@ export type JsonSchema = {
 export type SchemaContext = {
 	/** Where `#/…` references of the schema point (its own document). */
 	root: JsonSchema;
+	/** Where `#/components/…` references point: the OpenAPI document. */
+	document?: unknown;
 	/** Keys to try in an open record (observation keys, say). */
 	recordKeys: readonly string[];
 	/** Strings to try where a string goes. */
@@ -170,9 +172,9 @@ export type SchemaContext = {
 
 function resolve(schema: JsonSchema, context: SchemaContext): JsonSchema {
 	if (!schema.$ref?.startsWith('#/')) return schema;
-	let target: unknown = context.root;
+	let target: unknown = schema.$ref.startsWith('#/components/') ? context.document : context.root;
 	for (const part of schema.$ref.slice(2).split('/'))
-		target = (target as Record<string, unknown>)[part];
+		target = (target as Record<string, unknown> | undefined)?.[part];
 	return (target as JsonSchema) ?? {};
 }
 

@@ -109,7 +109,7 @@ function requestSchema(path: string, method: string): JsonSchema | undefined {
 /** A JSON body for the path: shaped by its POST schema where OpenAPI has one. */
 function bodyFor(path: string) {
 	const schema = requestSchema(path, 'POST');
-	return jsonBody(schema, { ...apiContext, root: schema ?? {} });
+	return jsonBody(schema, { ...apiContext, root: schema ?? {}, document: openapi });
 }
 
 /** A path segment from any string (a lone surrogate cannot be percent-encoded: it becomes U+FFFD). */
