@@ -7,6 +7,7 @@ import {
 	type PhraseIndex
 } from './phrase-index';
 import { isBetterCandidate, settleRivals, type Candidate, type ComplaintMatch } from './rivals';
+import { isPartialReading } from './polarity';
 import { splitSegments, type Segment } from './segments';
 import { buildVocabulary, readWord, type Vocabulary, type WordReading } from './vocabulary';
 import { findBestWindow, type WindowMatch } from './windows';
@@ -60,7 +61,7 @@ export function matchComplaint(
 		for (const entryIndex of listCandidates(index, byToken)) {
 			const entry = index.entries[entryIndex];
 			const found = findBestWindow(entry, segment, segmentReadings);
-			const value = found ? readValue(entry, found) : undefined;
+			const value = found ? readValue(entry, segment, found) : undefined;
 			if (!found || value === undefined) continue;
 			const candidate = describeCandidate(text, segment, entry, found, value, firstTokenIndex);
 			const current = best.get(entry.key);
@@ -74,15 +75,26 @@ export function matchComplaint(
 /**
  * The answer a window gives, or undefined for none: a doubt answers nothing; a negated enum
  * phrase says what it is not, which picks no value; a denial of one word ("no drips") is too thin
- * to turn round ("dripping" alone may be anything dripping).
+ * to turn round ("dripping" alone may be anything dripping); a late or weak yes ("the fan comes
+ * on late") is no plain yes.
  */
-function readValue(entry: PhraseEntry, found: WindowMatch): ObservationValue | undefined {
+function readValue(
+	entry: PhraseEntry,
+	segment: Segment,
+	found: WindowMatch
+): ObservationValue | undefined {
 	if (found.negation.doubtful) return undefined;
 	const windowNegated = found.negation.from !== null;
-	if (windowNegated === entry.negated) return entry.value;
-	if (entry.kind !== 'boolean') return undefined;
-	if (entry.negated && entry.contentWordCount < 2) return undefined;
-	return !entry.value;
+	let value = entry.value;
+	if (windowNegated !== entry.negated) {
+		if (entry.kind !== 'boolean') return undefined;
+		if (entry.negated && entry.contentWordCount < 2) return undefined;
+		value = !entry.value;
+	}
+	if (value === true && isPartialReading(segment, found.start, found.end, entry.words)) {
+		return undefined;
+	}
+	return value;
 }
 
 function describeCandidate(

@@ -1,8 +1,10 @@
 // Normalise and stem: a complaint or phrase as lower-case words with offsets into what was written.
 import {
 	CONJUNCTIONS,
+	IRREGULAR_VERBS,
 	LITTLE_WORDS,
 	LITTLE_WORD_WEIGHT,
+	MISSPELT_NEGATED_VERBS,
 	NEGATED_VERBS_WITHOUT_APOSTROPHE,
 	VERBS_BEFORE_NT
 } from './word-lists';
@@ -27,9 +29,7 @@ export function tokenize(text: string): Token[] {
 		const lower = match[0].toLowerCase();
 		const word = QUOTE_MARKS.test(lower) ? lower.replace(QUOTE_MARKS_ALL, "'") : lower;
 		const apostrophe = word.indexOf("'");
-		const negatedVerb = word.endsWith("n't")
-			? (VERBS_BEFORE_NT.get(word.slice(0, -3)) ?? word.slice(0, -3))
-			: NEGATED_VERBS_WITHOUT_APOSTROPHE.get(word);
+		const negatedVerb = readNegatedVerb(word);
 		if (negatedVerb !== undefined) {
 			if (negatedVerb) tokens.push({ word: negatedVerb, start, end });
 			tokens.push({ word: 'not', start, end });
@@ -43,14 +43,22 @@ export function tokenize(text: string): Token[] {
 	return tokens;
 }
 
+/** The verb of a negated contraction ("doesn't", "doesnt", "does'nt", "dosent"), "" for a bare
+ * "n't", or undefined when the word is none. */
+function readNegatedVerb(word: string): string | undefined {
+	if (word.endsWith("n't")) return VERBS_BEFORE_NT.get(word.slice(0, -3)) ?? word.slice(0, -3);
+	if (word.endsWith("'nt")) return word.slice(0, -3);
+	return NEGATED_VERBS_WITHOUT_APOSTROPHE.get(word) ?? MISSPELT_NEGATED_VERBS.get(word);
+}
+
 /**
  * A light stemmer, the same for phrases and complaints: plural, -ing and -ed endings, a doubled
  * final consonant on a longer word ("dripping", but "topping" stays apart from "top"), an
- * adjective -y, a silent final e ("hose"/"hoses", "idle"/"idling") and British -ise against
+ * adjective -y, irregular past tenses ("came" for "come"), a silent final e ("hose"/"hoses", "idle"/"idling") and British -ise against
  * American -ize.
  */
 export function stemWord(word: string): string {
-	let stem = word;
+	let stem = IRREGULAR_VERBS.get(word) ?? word;
 	let cutVerbEnding = false;
 	if (stem.length > 4 && (stem.endsWith('ies') || stem.endsWith('ied'))) {
 		stem = `${stem.slice(0, -3)}y`;

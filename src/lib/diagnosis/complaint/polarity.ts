@@ -1,9 +1,18 @@
 // Negation and doubt: whether a matched window is denied, doubted, or said outright.
 import type { Segment } from './segments';
-import { DOUBT_OPENERS, HEDGES, NEGATIONS, PAST_HABITS } from './word-lists';
+import {
+	DOUBT_OPENERS,
+	DOUBT_WORDS,
+	HEDGES,
+	NEGATIONS,
+	PARTIAL_WORDS,
+	PAST_HABITS
+} from './word-lists';
 
 /** A negation word reaches this many words ahead, within its clause. */
 const NEGATION_REACH_WORDS = 3;
+/** A late or weak word reaches back this many words over the end of a yes reading. */
+const PARTIAL_REACH_WORDS = 4;
 
 /** A negation word, unless it opens a doubt ("not sure", "no idea") or speaks of the past
  * ("never used to"). */
@@ -25,11 +34,13 @@ export interface NegationReach {
 }
 
 /**
- * A negation inside the window, or up to a few words before it in the same clause. A doubt
- * earlier in the clause ("not sure if", "don't know whether") leaves the window unanswered.
+ * A negation inside the window, or up to a few words before it in the same clause. A doubt in
+ * the clause ("not sure if", "don't know whether", "I think", "maybe") or a segment of doubt
+ * just after it ("…, not sure") leaves the window unanswered.
  */
 export function findNegation(segment: Segment, start: number, end: number): NegationReach {
 	const { words, clauseStart } = segment;
+	if (segment.doubtedAfter || hasDoubtWord(segment, start)) return { from: null, doubtful: true };
 	let doubting = false;
 	for (let index = clauseStart[start]; index < start; index++) {
 		if (NEGATIONS.has(words[index]) && HEDGES.has(words[index + 1] ?? '')) doubting = true;
@@ -40,4 +51,32 @@ export function findNegation(segment: Segment, start: number, end: number): Nega
 		if (isNegationAt(words, index)) return { from: index, doubtful: false };
 	}
 	return { from: null, doubtful: false };
+}
+
+/** Whether the clause of token `at` holds a word of doubt. */
+function hasDoubtWord(segment: Segment, at: number): boolean {
+	const { words, clauseStart } = segment;
+	for (let index = clauseStart[at]; index < words.length; index++) {
+		if (clauseStart[index] !== clauseStart[at]) break;
+		if (DOUBT_WORDS.has(words[index])) return true;
+	}
+	return false;
+}
+
+/** Whether a late or weak word ("comes on late", "is slow to come on", "only comes on when it is
+ * already boiling") sits inside the window or a few words after it, in its clause, and is not
+ * one of the phrase's own words. Such a yes is a partial finding, no plain yes. */
+export function isPartialReading(
+	segment: Segment,
+	start: number,
+	end: number,
+	phraseWords: readonly string[]
+): boolean {
+	const { words, clauseStart } = segment;
+	const last = Math.min(words.length, end + PARTIAL_REACH_WORDS);
+	for (let index = start; index < last; index++) {
+		if (clauseStart[index] !== clauseStart[start]) break;
+		if (PARTIAL_WORDS.has(words[index]) && !phraseWords.includes(words[index])) return true;
+	}
+	return false;
 }

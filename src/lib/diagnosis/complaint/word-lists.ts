@@ -135,3 +135,67 @@ export const LITTLE_WORDS: ReadonlySet<string> = new Set([
 	'which'
 ]);
 export const LITTLE_WORD_WEIGHT = 0.25;
+
+/** Misspelt negated verbs customers write ("dosent"), each as its verb; "not" follows. */
+export const MISSPELT_NEGATED_VERBS: ReadonlyMap<string, string> = new Map([
+	['dosent', 'does'],
+	['dosnt', 'does'],
+	['doesent', 'does'],
+	['dosen', 'does'],
+	['didint', 'did'],
+	['dident', 'did'],
+	['didnot', 'did'],
+	['isint', 'is'],
+	['wasint', 'was'],
+	['wouldint', 'would'],
+	['havnt', 'have'],
+	['hasent', 'has'],
+	['wount', 'will']
+]);
+/** Past tenses the stemmer's endings do not reach, as the verb they come from. */
+export const IRREGULAR_VERBS: ReadonlyMap<string, string> = new Map([
+	['came', 'come'],
+	['went', 'go'],
+	['gone', 'go'],
+	['ran', 'run'],
+	['blew', 'blow'],
+	['blown', 'blow'],
+	['kept', 'keep'],
+	['froze', 'freeze'],
+	['frozen', 'freeze'],
+	['broke', 'break'],
+	['broken', 'break'],
+	['began', 'begin'],
+	['shot', 'shoot'],
+	['grew', 'grow'],
+	['threw', 'throw']
+]);
+/** Words that make what follows (or goes before) in the clause a guess, not an answer:
+ * "I think the fan comes on", "maybe it's losing water". */
+export const DOUBT_WORDS: ReadonlySet<string> = new Set([
+	'maybe',
+	'perhaps',
+	'possibly',
+	'probably',
+	'might',
+	'think',
+	'guess',
+	'suppose',
+	'reckon',
+	'unsure'
+]);
+/** Degree words after a yes reading that make it a late or weak one: "the fan comes on late"
+ * is no "the fan runs when hot: yes". */
+export const PARTIAL_WORDS: ReadonlySet<string> = new Set([
+	'late',
+	'later',
+	'slow',
+	'slowly',
+	'eventually',
+	'finally',
+	'barely',
+	'weak',
+	'weakly',
+	'already',
+	'struggles'
+]);
