@@ -11,6 +11,9 @@ import {
 
 /** A negation word reaches this many words ahead, within its clause. */
 const NEGATION_REACH_WORDS = 3;
+/** A word of doubt reaches this many words ahead, and this many back, within its clause. */
+const DOUBT_REACH_WORDS = 5;
+const DOUBT_TRAIL_WORDS = 2;
 /** A late or weak word reaches back this many words over the end of a yes reading. */
 const PARTIAL_REACH_WORDS = 4;
 
@@ -40,7 +43,9 @@ export interface NegationReach {
  */
 export function findNegation(segment: Segment, start: number, end: number): NegationReach {
 	const { words, clauseStart } = segment;
-	if (segment.doubtedAfter || hasDoubtWord(segment, start)) return { from: null, doubtful: true };
+	if (segment.doubtedAfter || hasDoubtWord(segment, start, end)) {
+		return { from: null, doubtful: true };
+	}
 	let doubting = false;
 	for (let index = clauseStart[start]; index < start; index++) {
 		if (NEGATIONS.has(words[index]) && HEDGES.has(words[index + 1] ?? '')) doubting = true;
@@ -53,17 +58,20 @@ export function findNegation(segment: Segment, start: number, end: number): Nega
 	return { from: null, doubtful: false };
 }
 
-/** Whether the clause of token `at` holds a word of doubt. */
-function hasDoubtWord(segment: Segment, at: number): boolean {
+/** Whether a word of doubt in the window's clause reaches it: a few words before it ("I think
+ * the fan comes on"), inside it, or just after it ("the fan comes on I think"). */
+function hasDoubtWord(segment: Segment, start: number, end: number): boolean {
 	const { words, clauseStart } = segment;
-	for (let index = clauseStart[at]; index < words.length; index++) {
-		if (clauseStart[index] !== clauseStart[at]) break;
+	const first = Math.max(clauseStart[start], start - DOUBT_REACH_WORDS);
+	const last = Math.min(words.length, end + DOUBT_TRAIL_WORDS);
+	for (let index = first; index < last; index++) {
+		if (clauseStart[index] !== clauseStart[start]) break;
 		if (DOUBT_WORDS.has(words[index])) return true;
 	}
 	return false;
 }
 
-/** Whether a late or weak word ("comes on late", "is slow to come on", "only comes on when it is
+/** Whether a late or weak word ("comes on late", "is slow to come on", "only comes on when it's
  * already boiling") sits inside the window or a few words after it, in its clause, and is not
  * one of the phrase's own words. Such a yes is a partial finding, no plain yes. */
 export function isPartialReading(
@@ -76,7 +84,9 @@ export function isPartialReading(
 	const last = Math.min(words.length, end + PARTIAL_REACH_WORDS);
 	for (let index = start; index < last; index++) {
 		if (clauseStart[index] !== clauseStart[start]) break;
-		if (PARTIAL_WORDS.has(words[index]) && !phraseWords.includes(words[index])) return true;
+		const partial =
+			PARTIAL_WORDS.has(words[index]) || (words[index] === 'slow' && words[index + 1] === 'to');
+		if (partial && !phraseWords.includes(words[index])) return true;
 	}
 	return false;
 }

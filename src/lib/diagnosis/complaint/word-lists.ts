@@ -185,12 +185,10 @@ export const DOUBT_WORDS: ReadonlySet<string> = new Set([
 	'unsure'
 ]);
 /** Degree words after a yes reading that make it a late or weak one: "the fan comes on late"
- * is no "the fan runs when hot: yes". */
+ * is no "the fan runs when hot: yes". ("slow" only as "slow to": "slow traffic" is a place.) */
 export const PARTIAL_WORDS: ReadonlySet<string> = new Set([
 	'late',
 	'later',
-	'slow',
-	'slowly',
 	'eventually',
 	'finally',
 	'barely',
