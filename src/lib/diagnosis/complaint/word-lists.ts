@@ -156,7 +156,6 @@ export const MISSPELT_NEGATED_VERBS: ReadonlyMap<string, string> = new Map([
 export const IRREGULAR_VERBS: ReadonlyMap<string, string> = new Map([
 	['came', 'come'],
 	['went', 'go'],
-	['gone', 'go'],
 	['ran', 'run'],
 	['blew', 'blow'],
 	['blown', 'blow'],
