@@ -194,6 +194,67 @@ describe('complaint matching: grammar', () => {
 	});
 });
 
+describe('complaint matching: what customers say', () => {
+	it('reads a guess as no answer: "I think", "maybe", a trailing "not sure"', () => {
+		expect(match('I think the fan kicks in')).toEqual([]);
+		expect(match('maybe it is losing water')).toEqual([]);
+		expect(match('the fan kicks in, not sure')).toEqual([]);
+		expect(match('the fan kicks in I think')).toEqual([]);
+		// The guess stays in its clause: the traffic clause after "and" is said outright.
+		expect(match('I think the fan kicks in and it gets hot in traffic')).toMatchObject([
+			{ key: 'temp_gauge', value: 'high_at_idle' }
+		]);
+	});
+
+	it('reads a late or weak yes as no plain yes: "the fan kicks in late", "slow to come on"', () => {
+		expect(match('the fan kicks in late')).toEqual([]);
+		expect(match('the fan kicks in eventually')).toEqual([]);
+		expect(match('the fan kicks in when it is already boiling')).toEqual([]);
+		expect(match('the fan kicks in fine')).toMatchObject([
+			{ key: 'fan_runs_when_hot', value: true }
+		]);
+		// "Slow" names a place in "slow traffic", not a late finding.
+		expect(match('hot in slow traffic')).toMatchObject([
+			{ key: 'temp_gauge', value: 'high_at_idle' }
+		]);
+		// A denial stays a denial, late or not.
+		expect(match('the fan never comes on, not even late')).toMatchObject([
+			{ key: 'fan_runs_when_hot', value: false }
+		]);
+	});
+
+	it('keeps "only sometimes" as said: a frequency is no denial', () => {
+		expect(match('only sometimes it leaks on the drive')).toMatchObject([
+			{ key: 'puddle_under_vehicle', value: true }
+		]);
+	});
+
+	it('reads misspelt and misplaced contractions as a denial: "dosent", "does\'nt"', () => {
+		const phrases = { fan_runs_when_hot: [{ text: 'fan does not come on', value: false }] };
+		for (const complaint of [
+			'the fan dosent come on',
+			"the fan does'nt come on",
+			'fan dosnt come on'
+		]) {
+			expect(matchWith(phrases, complaint), complaint).toMatchObject([
+				{ key: 'fan_runs_when_hot', value: false }
+			]);
+		}
+	});
+
+	it('reads an irregular past tense as its verb: "the fan never came on"', () => {
+		expect(match('the fan never came on')).toMatchObject([
+			{ key: 'fan_runs_when_hot', value: false, from: 'fan never came on' }
+		]);
+	});
+
+	it('lets one negation cover a short list: "no drips or leaks on the drive, nothing"', () => {
+		expect(match('no smoke or leaks on the drive, nothing')).toMatchObject([
+			{ key: 'puddle_under_vehicle', value: false, from: 'no smoke or leaks on the drive' }
+		]);
+	});
+});
+
 describe('complaint matching: rival readings', () => {
 	it('lets a phrase that says more win over a shorter one of the same observation', () => {
 		const phrases = {
