@@ -363,7 +363,7 @@ async function benchCaseAppends() {
 		let connections = 0;
 		let sent = 0;
 		const append = () =>
-			load(server.baseUrl, {
+			load(server.pid, server.baseUrl, {
 				requests: [
 					{
 						method: 'POST',
@@ -387,7 +387,7 @@ async function benchCaseAppends() {
 			});
 		// What a second device polls to follow a case: the session, the case row, no new events.
 		const poll = () =>
-			load(server.baseUrl, {
+			load(server.pid, server.baseUrl, {
 				requests: [
 					{
 						method: 'GET',
@@ -402,7 +402,9 @@ async function benchCaseAppends() {
 		await append(); // warm-up: JIT, compiled edition, prepared statements
 		const runs: Record<string, LoadResult[]> = {};
 		for (let round = 0; round < ROUNDS; round++) {
-			(runs['GET /api/health'] ??= []).push(await load(`${server.baseUrl}/api/health`, {}));
+			(runs['GET /api/health'] ??= []).push(
+				await load(server.pid, `${server.baseUrl}/api/health`, {})
+			);
 			(runs['GET /api/v1/cases/{id}/events?after= (poll, nothing new)'] ??= []).push(await poll());
 			(runs['POST /api/v1/cases/{id}/events'] ??= []).push(await append());
 		}
