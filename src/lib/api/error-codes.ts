@@ -11,7 +11,9 @@ export const ERROR_STATUS = {
 	too_large: 413,
 	unsupported_media_type: 415,
 	rate_limited: 429,
-	internal_error: 500
+	internal_error: 500,
+	/** Our extension: /api/health and /api/ready when the database cannot be read or written. */
+	unavailable: 503
 } as const;
 
 export type ApiErrorCode = keyof typeof ERROR_STATUS;
