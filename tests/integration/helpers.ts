@@ -2,6 +2,7 @@ import { inject } from 'vitest';
 import { createClient } from '@libsql/client';
 import { join } from 'node:path';
 import { Client } from '../support/client';
+import { waitForLink } from '../support/smtp-catcher';
 import { DEMO_API_KEY, DEMO_PASSWORD } from './global-setup';
 
 export { DEMO_API_KEY, DEMO_PASSWORD };
@@ -27,7 +28,10 @@ let n = 0;
 export const uniqueEmail = (who: string) =>
 	`${who}.${process.pid}.${Date.now()}.${++n}@bay-tests.example`;
 
-/** Creates a new shop through the sign-up form and returns its signed-in admin client. */
+/**
+ * Creates a new shop through the sign-up form and the e-mailed link, and returns its signed-in
+ * admin client.
+ */
 export async function createShop(shopName = 'Cinder Hill Auto') {
 	const client = newClient();
 	const email = uniqueEmail('owner');
@@ -38,6 +42,10 @@ export async function createShop(shopName = 'Cinder Hill Auto') {
 		email,
 		password
 	});
-	if (result.type !== 'redirect') throw new Error(`sign-up failed: ${JSON.stringify(result)}`);
+	if (result.type !== 'success') throw new Error(`sign-up failed: ${JSON.stringify(result)}`);
+	const link = await waitForLink(mailDir(), email, '/signup/');
+	const confirmed = await client.action(new URL(link).pathname, {});
+	if (confirmed.type !== 'redirect')
+		throw new Error(`confirming failed: ${JSON.stringify(confirmed)}`);
 	return { client, email, password };
 }

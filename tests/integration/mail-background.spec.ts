@@ -8,17 +8,19 @@ import { startServer, type RunningServer } from '../support/server';
  * answer that arrives while the message is still held did not wait for the mail.
  */
 async function startHoldingSmtp() {
-	const held: { to: string; release: () => void }[] = [];
+	const held: { to: string; text: string; release: () => void }[] = [];
 	let accepted = 0;
 	const smtp = new SMTPServer({
 		authOptional: true,
 		disabledCommands: ['STARTTLS'],
 		logger: false,
 		onData(stream, session, callback) {
-			stream.resume();
+			const chunks: Buffer[] = [];
+			stream.on('data', (chunk: Buffer) => chunks.push(chunk));
 			stream.on('end', () =>
 				held.push({
 					to: session.envelope.rcptTo.map((r) => r.address).join(','),
+					text: Buffer.concat(chunks).toString('utf8'),
 					release: () => {
 						accepted++;
 						callback();
@@ -69,13 +71,20 @@ async function openShop() {
 		email,
 		password: 'heater-core-flush-5'
 	});
-	expect(made.type).toBe('redirect');
+	// The answer comes while the sign-up mail is still held; its link then creates the shop.
+	expect(made.type).toBe('success');
+	expect(await waitUntil(() => smtp.held.some((m) => m.to === email))).toBe(true);
+	const message = smtp.held.find((m) => m.to === email)!;
+	const path = message.text.replace(/=\r?\n/g, '').match(/\/signup\/[A-Za-z0-9_-]+/)![0];
+	smtp.releaseAll();
+	expect((await client.action(path, {})).type).toBe('redirect');
 	return { client, email };
 }
 
 describe('answers never wait on the mail server', () => {
 	it('answers a reset for a real account while its mail is still held, as for an unknown one', async () => {
 		const { email } = await openShop();
+		const before = smtp.accepted(); // the sign-up mail
 		const real = await new Client(server.baseUrl).action('/reset', { email });
 		const unknown = await new Client(server.baseUrl).action('/reset', {
 			email: `nobody.${Date.now()}@held-mail.example`
@@ -84,9 +93,9 @@ describe('answers never wait on the mail server', () => {
 		expect({ ...real.data, email: '' }).toEqual({ ...unknown.data, email: '' });
 		// The message reached the mail server, which has not accepted it yet.
 		expect(await waitUntil(() => smtp.held.some((m) => m.to === email))).toBe(true);
-		expect(smtp.accepted()).toBe(0);
+		expect(smtp.accepted()).toBe(before);
 		smtp.releaseAll();
-		expect(await waitUntil(() => smtp.accepted() === 1)).toBe(true);
+		expect(await waitUntil(() => smtp.accepted() === before + 1)).toBe(true);
 	});
 
 	it('answers an invitation while its mail is still held', async () => {

@@ -1,6 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { parse } from 'devalue';
+import { join } from 'node:path';
 import { startServer, type RunningServer } from '../support/server';
+import { waitForLink } from '../support/smtp-catcher';
 
 /**
  * Parallel sign-ins against a server of their own, which takes the client address from
@@ -54,7 +56,9 @@ async function newAccount(name: string) {
 		{ shopName: 'Tidewater Motors', name: 'Burst Owner', email, password: PASSWORD },
 		address()
 	);
-	expect(made.type).toBe('redirect');
+	expect(made.type).toBe('success');
+	const link = await waitForLink(join(server.dataDir, 'mail-out'), email, '/signup/');
+	expect((await post(new URL(link).pathname, {}, address())).type).toBe('redirect');
 	return email;
 }
 

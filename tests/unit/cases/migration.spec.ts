@@ -91,5 +91,5 @@ describe('migrating cases saved before the timeline existed', () => {
 		expect(JSON.parse(String(first.ranking))).toHaveLength(4);
 		expect((await client.execute('PRAGMA foreign_key_check')).rows).toEqual([]);
 		client.close();
-	});
+	}, 30_000); // real migrations on a SQLite file: slow when the machine is busy
 });

@@ -70,7 +70,9 @@ describe('API error handling', () => {
 			too_large: 413,
 			unsupported_media_type: 415,
 			rate_limited: 429,
-			internal_error: 500
+			internal_error: 500,
+			// Our extension, for /api/health and /api/ready only (not in the contract's table).
+			unavailable: 503
 		};
 		expect(ERROR_CODES).toEqual(Object.keys(contractTable));
 		for (const [code, status] of Object.entries(contractTable)) {

@@ -26,23 +26,24 @@ export const SIGNUP_REFUSED =
 	'A new shop cannot be opened with these details. If you already use Causeway, sign in or reset your password.';
 
 /** Creates a shop and its first user, an admin. */
-export async function createShop(input: {
-	shopName: string;
-	name: string;
-	email: string;
-	password: string;
-	isDemo?: boolean;
-}) {
+export async function createShop(
+	input: { shopName: string; name: string; email: string; isDemo?: boolean } & (
+		{ password: string } | { passwordHash: string }
+	)
+) {
 	const email = normaliseEmail(input.email);
-	const weak = checkPasswordStrength(input.password, email);
-	if (weak) throw new AppError('invalid_request', weak, { field: 'password' });
+	if ('password' in input) {
+		const weak = checkPasswordStrength(input.password, email);
+		if (weak) throw new AppError('invalid_request', weak, { field: 'password' });
+	}
 	if (await findUserByEmail(email)) {
 		// Worded so that it does not confirm that the address has an account.
 		throw new AppError('conflict', SIGNUP_REFUSED);
 	}
 	const shopId = generateId();
 	const userId = generateId();
-	const passwordHash = await hashPassword(input.password);
+	const passwordHash =
+		'password' in input ? await hashPassword(input.password) : input.passwordHash;
 	await db.batch([
 		db.insert(shops).values({ id: shopId, name: input.shopName.trim(), isDemo: !!input.isDemo }),
 		db.insert(users).values({

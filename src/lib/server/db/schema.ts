@@ -109,6 +109,23 @@ export const passwordResets = sqliteTable(
 	(t) => [uniqueIndex('password_resets_token_unique').on(t.tokenHash)]
 );
 
+/** A new shop waiting for its owner to open the e-mailed link (sign-up reveals no accounts). */
+export const signupRequests = sqliteTable(
+	'signup_requests',
+	{
+		id: text('id').primaryKey(),
+		email: text('email').notNull(),
+		shopName: text('shop_name').notNull(),
+		name: text('name').notNull(),
+		passwordHash: text('password_hash').notNull(),
+		tokenHash: text('token_hash').notNull(),
+		expiresAt: integer('expires_at', { mode: 'timestamp' }).notNull(),
+		usedAt: integer('used_at', { mode: 'timestamp' }),
+		createdAt: createdAt()
+	},
+	(t) => [uniqueIndex('signup_requests_token_unique').on(t.tokenHash)]
+);
+
 export const apiKeys = sqliteTable(
 	'api_keys',
 	{

@@ -35,3 +35,30 @@ export function passwordResetMessage(args: {
 			footer
 	};
 }
+
+export function signupMessage(args: {
+	to: string;
+	shopName: string;
+	link: string;
+	expiresHours: number;
+}): MailMessage {
+	return {
+		to: args.to,
+		subject: `Finish setting up ${args.shopName} on Causeway`,
+		text:
+			`Someone asked to set up the shop ${args.shopName} on Causeway with this address.\n\n` +
+			`Open this link to create the shop and sign in (it works once, for ${args.expiresHours} hours):\n${args.link}` +
+			footer
+	};
+}
+
+export function signupExistingAccountMessage(args: { to: string; baseUrl: string }): MailMessage {
+	return {
+		to: args.to,
+		subject: 'You already use Causeway',
+		text:
+			`Someone asked to set up a new shop on Causeway with this address, which already has an account, so no shop was created.\n\n` +
+			`Sign in here: ${args.baseUrl}/signin\nForgot the password? Choose a new one here: ${args.baseUrl}/reset` +
+			footer
+	};
+}

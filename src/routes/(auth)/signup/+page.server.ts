@@ -1,7 +1,6 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
-import { createShop } from '$lib/server/auth/users';
-import { createUserSession } from '$lib/server/auth/session';
+import { startSignUp } from '$lib/server/auth/signup';
 import {
 	emailField,
 	failForm,
@@ -39,15 +38,13 @@ const createShopAction: Action = async (event) => {
 	if (!limit.allowed) {
 		return fail(429, { message: 'Too many new shops from this address. Try again later.', values });
 	}
-	let userId: string;
 	try {
-		({ userId } = await createShop({ ...values, password }));
+		startSignUp({ ...values, password }, getConfig().ORIGIN ?? event.url.origin);
 	} catch (err) {
 		return failFromError(err, values);
 	}
-	const { cookie } = await createUserSession(userId);
-	event.cookies.set(cookie.name, cookie.value, { ...cookie.attributes, path: '/' });
-	redirect(303, '/');
+	// The same answer whether or not the address has an account: the e-mail says which.
+	return { sentTo: values.email };
 };
 
 export const actions = { default: createShopAction } satisfies Actions;
