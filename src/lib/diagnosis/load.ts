@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { basename, join } from 'node:path';
-import { formatIssuePath, rulebookSchema, type Rulebook } from './schema';
+import { formatIssuePath } from '../calculators/format';
+import { rulebookSchema, type Rulebook } from './schema';
 
 export interface RulebookFileIssue {
 	/** e.g. `rules/rules.json` (folder name + file name). */
