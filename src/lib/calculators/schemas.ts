@@ -1,3 +1,4 @@
+// The calculators' input schemas and registry: what each endpoint and form accepts.
 import { z } from 'zod';
 import { boilingPointUnderCap, checkBoilingPointInput } from './boiling-point';
 import { calculateDrainFill, checkDrainFillInput } from './drain-fill';

@@ -1,3 +1,4 @@
+// Loading a rulebook from its folder of JSON files, with every issue named by file and path.
 import { readFileSync } from 'node:fs';
 import { basename, join } from 'node:path';
 import { formatIssuePath } from '../calculators/format';

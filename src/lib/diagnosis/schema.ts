@@ -1,3 +1,4 @@
+// The rulebook schema: causes, observations, rules and tests, and the checks a rulebook must pass.
 import { z } from 'zod';
 import { formatIssuePath } from '../calculators/format';
 
