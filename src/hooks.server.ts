@@ -1,3 +1,4 @@
+// Server start-up (config, migrations, seed, housekeeping) and the pipeline every request passes.
 import type { Handle, HandleServerError, ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { SESSION_COOKIE, validateSessionToken } from '$lib/server/auth/session';

@@ -1,3 +1,4 @@
+// The app's sections and the permission each needs.
 import type { Permission } from '$lib/server/auth/roles';
 
 /** The app's sections; the layout shows those the signed-in role may open. */

@@ -12,9 +12,9 @@ import {
 	GAIN_DECIMALS,
 	MATCH_SCORE_DECIMALS,
 	PROBABILITY_DECIMALS,
-	roundTo,
 	TEST_SCORE_DECIMALS
 } from './round';
+import { roundTo } from '../calculators/format';
 
 export interface DiagnosedCause {
 	key: string;

@@ -1,3 +1,4 @@
+// The diagnosis API contract in zod: the request a client sends and the answer it gets.
 import { z } from 'zod';
 import { ERROR_CODES } from './error-codes';
 import { validateVin } from '../vehicle/vin';

@@ -1,3 +1,4 @@
+// The boiling-point calculator's form.
 import {
 	CAUTION_COOLANT_POISON,
 	CAUTION_HOT_CAP,

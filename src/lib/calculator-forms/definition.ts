@@ -1,3 +1,4 @@
+// The shape of one calculator's form definition and of the message its action returns.
 import type { SuperValidated } from 'sveltekit-superforms';
 import type { CalculatorName, CalculatorResult, IntervalSettings } from '../calculators';
 import type { DisplayRow } from './display';

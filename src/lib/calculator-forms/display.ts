@@ -1,3 +1,4 @@
+// How result rows read: each figure with its unit, in the unit the person chose.
 import {
 	convertTemperature,
 	convertVolume,

@@ -1,3 +1,4 @@
+// The drain-and-fill calculator's form.
 import {
 	CAUTION_COOLANT_POISON,
 	CAUTION_FOLLOW_PROCEDURE,

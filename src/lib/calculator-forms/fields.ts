@@ -1,3 +1,4 @@
+// The fields of a calculator's form as data, and reading typed numbers.
 import { z } from 'zod';
 
 /**

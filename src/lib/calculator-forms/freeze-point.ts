@@ -1,3 +1,4 @@
+// The freeze-point calculators' forms: a mix's freeze point, and the glycol a freeze point needs.
 import {
 	CAUTION_COOLANT_POISON,
 	freezeTables,

@@ -1,3 +1,4 @@
+// Pieces the calculator forms share: common choices and reading numbers in a chosen unit.
 import {
 	CalculatorError,
 	convertTemperature,

@@ -1,3 +1,4 @@
+// The calculators' forms in page order, and the form helpers the page uses.
 import { boilingPointForm } from './boiling-point';
 import type { CalculatorFormDefinition } from './definition';
 import { drainAndFillForm } from './drain-and-fill';

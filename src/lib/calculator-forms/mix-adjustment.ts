@@ -1,3 +1,4 @@
+// The mix-adjustment calculator's form: drain and replace to reach a target freeze point.
 import {
 	CAUTION_COOLANT_POISON,
 	CAUTION_FOLLOW_PROCEDURE,

@@ -1,3 +1,4 @@
+// The service-interval calculator's form.
 import {
 	CAUTION_COOLANT_POISON,
 	CAUTION_FOLLOW_PROCEDURE,

@@ -1,3 +1,4 @@
+// The unit-conversion calculator's form.
 import {
 	countSignificantDigits,
 	formatSignificant,

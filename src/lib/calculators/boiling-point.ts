@@ -1,3 +1,4 @@
+// Boiling point of water or a glycol mix under a pressure cap at an altitude (IAPWS-IF97).
 import { CAUTION_COOLANT_POISON, CAUTION_HOT_CAP } from './cautions';
 import { CalculatorError, throwIfIssues, type CalculatorIssue } from './errors';
 import { formatNumber } from './format';

@@ -1,3 +1,4 @@
+// Partial drain-and-fill: the fresh share after each cycle, and the cycles a target needs.
 import { CAUTION_COOLANT_POISON, CAUTION_FOLLOW_PROCEDURE, CAUTION_HOT_CAP } from './cautions';
 import { throwIfIssues, type CalculatorIssue } from './errors';
 import { formatNumber, roundTo } from './format';

@@ -1,3 +1,6 @@
+// The one home of small number and path helpers: rounding, number and issue-path formats.
+// Pure, imports nothing, so the calculators, the diagnosis engine and the API all use it.
+
 const formatters = new Map<number, Intl.NumberFormat>();
 
 /**
@@ -16,7 +19,10 @@ export function formatNumber(value: number, maxDecimals = 2): string {
 	return text.replace('-', '−');
 }
 
-/** Rounds to a fixed number of decimals without the float noise of toFixed on values like 1.005. */
+/**
+ * `value` rounded half up to `decimals` places, without the float noise of plain scaling on
+ * values like 1.005; never -0.
+ */
 export function roundTo(value: number, decimals: number): number {
 	const rounded = Number(Math.round(Number(`${value}e${decimals}`)) + `e-${decimals}`);
 	// Exponent notation fails for very small or very large magnitudes; fall back to plain scaling.
@@ -46,4 +52,14 @@ export function countSignificantDigits(text: string): number {
 		.replace(/[^0-9]/g, '')
 		.replace(/^0+/, '');
 	return Math.max(1, digits.length);
+}
+
+/** `['rules', 12, 'conditions', 'all', 0]` → `rules[12].conditions.all[0]`. */
+export function formatIssuePath(path: readonly PropertyKey[]): string {
+	let out = '';
+	for (const segment of path) {
+		if (typeof segment === 'number') out += `[${segment}]`;
+		else out += out === '' ? String(segment) : `.${String(segment)}`;
+	}
+	return out;
 }

@@ -1,3 +1,4 @@
+// Freeze point of a glycol mix from published tables, its reverse, and how to adjust a mix.
 import { CAUTION_COOLANT_POISON, CAUTION_FOLLOW_PROCEDURE, CAUTION_HOT_CAP } from './cautions';
 import { CalculatorError, throwIfIssues, type CalculatorIssue } from './errors';
 import { formatNumber, roundTo } from './format';

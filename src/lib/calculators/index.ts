@@ -1,3 +1,4 @@
+// The calculators' public surface: every calculator, its schema and its helpers.
 export * from './errors';
 export * from './result';
 export * from './cautions';

@@ -1,3 +1,4 @@
+// The physical range of every number a calculator takes, with where each bound comes from.
 import type { CalculatorIssue } from './errors';
 import { formatNumber } from './format';
 

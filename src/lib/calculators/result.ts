@@ -1,3 +1,4 @@
+// The one result shape every calculator returns: quantities with units, basis, warnings, steps.
 import { roundTo } from './format';
 
 /**

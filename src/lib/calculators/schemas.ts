@@ -1,7 +1,9 @@
+// The calculators' input schemas and registry: what each endpoint and form accepts.
 import { z } from 'zod';
 import { boilingPointUnderCap, checkBoilingPointInput } from './boiling-point';
 import { calculateDrainFill, checkDrainFillInput } from './drain-fill';
 import { CalculatorError, type CalculatorIssue } from './errors';
+import { formatIssuePath } from './format';
 import {
 	adjustMix,
 	calculateFreezePoint,
@@ -208,7 +210,7 @@ export function parseCalculatorInput<S extends z.ZodType>(schema: S, input: unkn
 	// The field's range and the calculator's own check can both report a value out of range.
 	const seen = new Set<string>();
 	const issues = parsed.error.issues
-		.map((issue) => ({ path: issue.path.map(String).join('.'), message: issue.message }))
+		.map((issue) => ({ path: formatIssuePath(issue.path), message: issue.message }))
 		.filter((issue) => {
 			const key = `${issue.path}\n${issue.message}`;
 			if (seen.has(key)) return false;

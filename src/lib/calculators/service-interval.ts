@@ -1,3 +1,4 @@
+// Coolant service interval: when the next change is due, by distance or by time.
 import { CAUTION_COOLANT_POISON, CAUTION_FOLLOW_PROCEDURE } from './cautions';
 import { throwIfIssues, type CalculatorIssue } from './errors';
 import { formatNumber } from './format';

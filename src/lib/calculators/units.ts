@@ -1,3 +1,4 @@
+// Unit conversions for volume, pressure, torque and temperature, from the units' definitions.
 import { CalculatorError, throwIfIssues, type CalculatorIssue } from './errors';
 import { formatNumber } from './format';
 import { checkRange, conversionRanges } from './ranges';

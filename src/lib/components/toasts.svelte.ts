@@ -1,3 +1,4 @@
+// Toasts: short confirmations after an action, shown by <Toasts /> in the app layout.
 export type Toast = { id: number; message: string; kind: 'ok' | 'error' };
 
 let nextId = 1;

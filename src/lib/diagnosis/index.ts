@@ -10,10 +10,10 @@ import {
 	type FrequencyOverrides,
 	type NextQuestion
 } from './next-question';
+import { formatIssuePath } from '../calculators/format';
 import { rankCauses, sumLogOdds, type RankedCause } from './rank';
 import {
 	describeInvalidValue,
-	formatIssuePath,
 	parseRulebook,
 	type Observation,
 	type ObservationValue,

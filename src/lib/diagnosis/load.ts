@@ -1,6 +1,8 @@
+// Loading a rulebook from its folder of JSON files, with every issue named by file and path.
 import { readFileSync } from 'node:fs';
 import { basename, join } from 'node:path';
-import { formatIssuePath, rulebookSchema, type Rulebook } from './schema';
+import { formatIssuePath } from '../calculators/format';
+import { rulebookSchema, type Rulebook } from './schema';
 
 export interface RulebookFileIssue {
 	/** e.g. `rules/rules.json` (folder name + file name). */

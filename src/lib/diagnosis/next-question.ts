@@ -1,5 +1,7 @@
 // Next questions: which unanswered observation would most reduce the uncertainty of the causes.
-import { GAIN_DECIMALS, roundTo } from '../api/round';
+import { GAIN_DECIMALS } from '../api/round';
+import { roundTo } from '../calculators/format';
+import { compareKeys } from './rank';
 import type { CompiledRule, CompiledRulebook, FactVector, FiredMask } from './evaluate';
 import type {
 	Bin,
@@ -292,9 +294,7 @@ export function describeNextQuestions(
 	// Order by what the caller will see (4 decimals), so equal shown gains list by key.
 	asked.sort((a, b) => {
 		if (shownGains[a] !== shownGains[b]) return shownGains[b] - shownGains[a];
-		const keyA = observations[a].key;
-		const keyB = observations[b].key;
-		return keyA < keyB ? -1 : keyA > keyB ? 1 : 0;
+		return compareKeys(observations[a].key, observations[b].key);
 	});
 	const count = Math.min(asked.length, limit);
 	const questions: NextQuestion[] = new Array(count);

@@ -1,3 +1,4 @@
+// Ranking causes: posterior probability from the fired rules, bands and a stable order.
 import type { CompiledRulebook, FiredMask } from './evaluate';
 import type { Band, Bands } from './schema';
 

@@ -1,4 +1,6 @@
+// The rulebook schema: causes, observations, rules and tests, and the checks a rulebook must pass.
 import { z } from 'zod';
+import { formatIssuePath } from '../calculators/format';
 
 // The rulebook schema validates the ASSEMBLED rulebook ({ meta, causes, observations, rules, tests }),
 // because that is what an edition stores; the file loader maps issue paths back to files.
@@ -207,16 +209,6 @@ type PathSegment = string | number;
 interface PathIssue {
 	path: PathSegment[];
 	message: string;
-}
-
-/** `['rules', 12, 'conditions', 'all', 0]` → `rules[12].conditions.all[0]`. */
-export function formatIssuePath(path: readonly PropertyKey[]): string {
-	let out = '';
-	for (const segment of path) {
-		if (typeof segment === 'number') out += `[${segment}]`;
-		else out += out === '' ? String(segment) : `.${String(segment)}`;
-	}
-	return out;
 }
 
 export function parseRulebook(

@@ -1,3 +1,4 @@
+// The test plan: which confirming tests to do, in order of information per minute.
 import type { CompiledRulebook } from './evaluate';
 import { compareKeys } from './rank';
 

@@ -1,3 +1,4 @@
+// The audit log: rows written with the change they record, and the shop's log page by page.
 import { and, desc, eq, lt } from 'drizzle-orm';
 import { db } from './db';
 import { auditLog, users } from './db/schema';

@@ -1,3 +1,4 @@
+// The calculators on the server: the API's list of them, the shop's intervals, contract errors.
 import { superValidate, type SuperValidated } from 'sveltekit-superforms/server';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { z } from 'zod';

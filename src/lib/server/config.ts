@@ -1,3 +1,4 @@
+// Server configuration: every environment setting, parsed and checked once.
 import { z } from 'zod';
 
 /**

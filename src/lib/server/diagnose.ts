@@ -1,3 +1,4 @@
+// Diagnose for a shop: parse the request and rank causes on the caller's published edition.
 import { shapeDiagnosis } from '../api/diagnosis-response';
 import { diagnoseRequestSchema, type DiagnoseRequest } from '../api/schema';
 import { saveDiagnoseAsCase } from './cases/cases';

@@ -1,3 +1,4 @@
+// Who may do what: the checks pages, form actions and API endpoints call before doing anything.
 import { error, redirect, type RequestEvent } from '@sveltejs/kit';
 import { authenticateApiKey } from './auth/api-keys';
 import type { PublishedEditionRow } from './editions';

@@ -1,3 +1,4 @@
+// Housekeeping: deletes expired sessions and stale rate-limit counters, at start and on a timer.
 import { and, isNull, lt, or } from 'drizzle-orm';
 import { lucia } from './auth/lucia';
 import { db } from './db';

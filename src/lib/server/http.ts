@@ -1,7 +1,7 @@
 /** The contract's JSON answers and errors, and reading a JSON body within its limit. */
 import type { RequestEvent } from '@sveltejs/kit';
 import type { ApiErrorCode } from '../api/error-codes';
-import { formatIssuePath } from '../diagnosis/schema';
+import { formatIssuePath } from '../calculators/format';
 import { AppError, type Issue, STATUS_OF } from './errors';
 
 /**

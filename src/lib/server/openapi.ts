@@ -1,3 +1,4 @@
+// The v1 API's OpenAPI document, from the zod schemas and error codes the handlers use.
 import { z } from 'zod';
 import { apiErrorSchema, diagnoseRequestSchema, diagnoseResponseSchema } from '../api/schema';
 import { ERROR_CODES, ERROR_STATUS, type ApiErrorCode } from '../api/error-codes';

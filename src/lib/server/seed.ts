@@ -1,3 +1,4 @@
+// The invented demo shop, its users and vehicles, seeded on start where the database is empty.
 import { count } from 'drizzle-orm';
 import { db } from './db';
 import { shops, type Role } from './db/schema';

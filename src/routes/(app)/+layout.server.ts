@@ -1,3 +1,4 @@
+// The app layout's data: the signed-in person, the shop and the sections their role may open.
 import { can, ROLE_LABELS } from '$lib/server/auth/roles';
 import { getShop } from '$lib/server/shops';
 import { requireUser } from '$lib/server/guard';

@@ -1,3 +1,4 @@
+// The home page: signed-in people only.
 import { requireUser } from '$lib/server/guard';
 import type { PageServerLoad } from './$types';
 

@@ -1,4 +1,5 @@
 // Phrase index: every phrase of an edition as weighted words, listed under its rarest content words.
+import { compareKeys } from '../rank';
 import type { Observation, ObservationValue, Rulebook } from '../schema';
 import { isFunctionWord, stemWord, tokenize, weighWord } from './normalise';
 import { isNegatedPhrase } from './polarity';
@@ -158,7 +159,7 @@ function listPrefixUsers(
 		const total = words.reduce((sum, { weight }) => sum + weight, 0);
 		const allowance = total - neededWeights[entryIndex];
 		const rarestFirst = [...words].sort(
-			(a, b) => rarity(a.word) - rarity(b.word) || (a.word < b.word ? -1 : a.word > b.word ? 1 : 0)
+			(a, b) => rarity(a.word) - rarity(b.word) || compareKeys(a.word, b.word)
 		);
 		let prefixWeight = 0;
 		for (const { word, weight } of rarestFirst) {

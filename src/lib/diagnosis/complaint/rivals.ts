@@ -1,4 +1,5 @@
 // Rival readings: one match per observation, and no two observations read from the same words.
+import { compareKeys } from '../rank';
 import type { ObservationValue } from '../schema';
 
 export interface ComplaintMatch {
@@ -82,6 +83,6 @@ export function settleRivals(
 	return kept
 		.filter((candidate) => !kept.some((other) => explainsCandidate(other, candidate)))
 		.filter((candidate) => !skip.has(candidate.key))
-		.sort((a, b) => a.position - b.position || (a.key < b.key ? -1 : a.key > b.key ? 1 : 0))
+		.sort((a, b) => a.position - b.position || compareKeys(a.key, b.key))
 		.map(({ key, value, from, score }) => ({ key, value, from, score }));
 }

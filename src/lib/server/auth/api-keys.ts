@@ -1,3 +1,4 @@
+// API keys: create, list and revoke a shop's keys, and authenticate a request by its key.
 import { and, desc, eq, isNull, sql } from 'drizzle-orm';
 import { db } from '../db';
 import { apiKeys, rulebookEditions } from '../db/schema';

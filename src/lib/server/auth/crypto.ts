@@ -1,3 +1,4 @@
+// Random tokens, row ids and token hashes.
 import { createHash } from 'node:crypto';
 import { encodeBase32LowerCaseNoPadding } from '@oslojs/encoding';
 

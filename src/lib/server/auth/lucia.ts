@@ -1,3 +1,4 @@
+// The lucia instance and session timeouts; only this folder uses lucia.
 import { DrizzleSQLiteAdapter } from '@lucia-auth/adapter-drizzle';
 import { Lucia, TimeSpan } from 'lucia';
 import { db } from '../db';

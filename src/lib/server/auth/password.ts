@@ -1,3 +1,4 @@
+// Passwords: argon2id hashing and verifying, length limits and the strength check.
 import { hash, verify } from '@node-rs/argon2';
 import { dictionary } from '@zxcvbn-ts/language-common';
 

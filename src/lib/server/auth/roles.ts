@@ -1,3 +1,4 @@
+// Roles and permissions: what each role may do, and which roles a person may hand out.
 import { ROLES, type Role } from '../db/schema';
 
 export { ROLES, type Role };

@@ -1,3 +1,4 @@
+// Sessions: create, validate and end them, and the cookie that carries the token.
 import type { Session, User } from 'lucia';
 import { lucia, SESSION_ABSOLUTE_TIMEOUT_S } from './lucia';
 import { hashToken, randomToken } from './crypto';

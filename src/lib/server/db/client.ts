@@ -1,3 +1,4 @@
+// Opening a libSQL database: connection pragmas and migrations.
 import { mkdirSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import { createClient, type Client } from '@libsql/client';

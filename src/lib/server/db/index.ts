@@ -1,3 +1,4 @@
+// The process-wide database and its preparation before the server answers.
 import { getConfig } from '../config';
 import { createDatabase, prepareDatabase } from './client';
 import { redactQueryParameters } from './redact-errors';

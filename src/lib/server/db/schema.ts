@@ -1,3 +1,4 @@
+// The database schema (Drizzle): shops, people, sessions, keys, audit, counters, editions, cases.
 import { sql } from 'drizzle-orm';
 import { index, integer, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 import {

@@ -1,3 +1,4 @@
+// The mails the product sends: an invitation and a password reset.
 import type { MailMessage } from './mailer';
 
 const footer =

@@ -1,3 +1,4 @@
+// The calculators page: each calculator's form and its action.
 import { fail } from '@sveltejs/kit';
 import { message, setError, superValidate } from 'sveltekit-superforms/server';
 import {

@@ -1,3 +1,4 @@
+// The rank page's data: the published edition's observations and test steps.
 import { getPublishedEdition } from '$lib/server/editions';
 import { requirePermission } from '$lib/server/guard';
 import type { PageServerLoad } from './$types';

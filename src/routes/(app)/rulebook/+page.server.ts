@@ -1,3 +1,4 @@
+// The rulebook page: the shop's editions and the published one's causes, rules and tests.
 import { getPublishedEdition, listEditions } from '$lib/server/editions';
 import { requirePermission } from '$lib/server/guard';
 import type { PageServerLoad } from './$types';

@@ -1,3 +1,4 @@
+// Password reset request: mails a link, rate-limited, answering alike whether the account exists.
 import { fail } from '@sveltejs/kit';
 import { z } from 'zod';
 import { startPasswordReset } from '$lib/server/auth/password-reset';

@@ -1,3 +1,4 @@
+// Sign-in page: checks the password, throttled, and returns to where the person was going.
 import { fail, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
 import { safeNextPath } from '$lib/server/auth/safe-next';

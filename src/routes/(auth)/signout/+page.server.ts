@@ -1,3 +1,4 @@
+// Sign-out: ends the session and returns to the sign-in page.
 import { redirect } from '@sveltejs/kit';
 import { blankSessionCookie, invalidateSession } from '$lib/server/auth/session';
 import type { Action, Actions, PageServerLoad } from './$types';

@@ -1,3 +1,4 @@
+// Sign-up page: a new shop with its first admin.
 import { fail, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
 import { startSignUp } from '$lib/server/auth/signup';

@@ -1,3 +1,4 @@
+// GET /api/health: liveness, the database answers.
 import { pingDatabase } from '$lib/server/health';
 import { apiHandler, json } from '$lib/server/http';
 import type { RequestHandler } from './$types';

@@ -1,3 +1,4 @@
+// GET /api/ready: readiness, the database takes a write.
 import { databaseWritable } from '$lib/server/health';
 import { apiHandler, json } from '$lib/server/http';
 import type { RequestHandler } from './$types';

@@ -1,3 +1,4 @@
+// A shop's hosted intake form: a customer describes the problem, it becomes a waiting case.
 import { error, fail, redirect } from '@sveltejs/kit';
 import {
 	countIntakePost,

@@ -1,3 +1,4 @@
+// API key settings: list, create and revoke the shop's keys.
 import { z } from 'zod';
 import { createApiKey, listApiKeys, revokeApiKey } from '$lib/server/auth/api-keys';
 import { failForm, failFromError, nameField, parseForm } from '$lib/server/forms';

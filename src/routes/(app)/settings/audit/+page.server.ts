@@ -1,3 +1,4 @@
+// The audit log page: the shop's log, newest first, page by page.
 import { z } from 'zod';
 import { listAudit } from '$lib/server/audit';
 import { requirePermission } from '$lib/server/guard';

@@ -1,3 +1,4 @@
+// Shop settings: the shop's name and coolant service interval.
 import { getShop } from '$lib/server/shops';
 import { failForm, parseForm } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guard';

@@ -1,3 +1,4 @@
+// Users settings: the shop's people, invitations, roles and who is active.
 import { z } from 'zod';
 import { inviteUser, listPendingInvites, withdrawInvite } from '$lib/server/auth/invites';
 import { assignableRoles, ROLE_LABELS, ROLES } from '$lib/server/auth/roles';

@@ -1,3 +1,4 @@
+// Accepting an invitation: the invited person sets a name and password and is signed in.
 import { error, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
 import { acceptInvite, findUsableInvite } from '$lib/server/auth/invites';

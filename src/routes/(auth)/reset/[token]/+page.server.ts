@@ -1,3 +1,4 @@
+// Password reset: a new password from a valid reset link.
 import { error, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
 import { findUsableReset, resetPassword } from '$lib/server/auth/password-reset';

@@ -1,3 +1,4 @@
+// GET /api/v1/calculators: every calculator with the JSON input it takes.
 import { listCalculators } from '$lib/server/calculators';
 import { authenticateApi } from '$lib/server/guard';
 import { apiHandler, json } from '$lib/server/http';

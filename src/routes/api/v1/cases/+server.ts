@@ -1,3 +1,4 @@
+// GET and POST /api/v1/cases: list the shop's cases and open a new one.
 import { createCaseSchema, listCasesQuerySchema } from '$lib/api/cases-schema';
 import { createCase, getCaseDetail, listCases, parseCaseRequest, queryOf } from '$lib/server/cases';
 import { getPublishedEdition } from '$lib/server/editions';

@@ -1,3 +1,4 @@
+// POST /api/v1/diagnose: rank causes, next questions and tests for a set of answers.
 import { parseDiagnoseRequest, diagnoseForShop } from '$lib/server/diagnose';
 import { authenticateApi } from '$lib/server/guard';
 import { apiHandler, asciiJson, readJsonBody } from '$lib/server/http';

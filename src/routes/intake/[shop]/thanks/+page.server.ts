@@ -1,3 +1,4 @@
+// The intake thank-you page.
 import { error } from '@sveltejs/kit';
 import { findIntakeShop } from '$lib/server/cases/intake';
 import type { PageServerLoad } from './$types';

@@ -1,3 +1,4 @@
+// GET and POST /api/v1/calculators/:name: describe one calculator and run it.
 import { findCalculator, listCalculators, runCalculatorForShop } from '$lib/server/calculators';
 import { authenticateApi } from '$lib/server/guard';
 import { apiHandler, json, readJsonBody } from '$lib/server/http';

@@ -1,3 +1,4 @@
+// GET /api/v1/cases/:id: one case with its timeline.
 import { getCaseDetail } from '$lib/server/cases';
 import { authenticateApi } from '$lib/server/guard';
 import { apiHandler, json } from '$lib/server/http';

@@ -1,3 +1,4 @@
+// GET and POST /api/v1/cases/:id/events: follow a case's timeline and append to it.
 import { appendEventSchema, eventsQuerySchema } from '$lib/api/cases-schema';
 import {
 	appendEvent,

@@ -1,3 +1,4 @@
+// POST /api/v1/cases/:id/take: a technician takes a waiting case.
 import { takeCaseSchema } from '$lib/api/cases-schema';
 import { getCaseDetail, parseCaseRequest, takeCase } from '$lib/server/cases';
 import { authenticateApi } from '$lib/server/guard';
