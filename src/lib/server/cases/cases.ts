@@ -33,6 +33,26 @@ function checkObservations(edition: PublishedEdition, spec: OpenCase) {
 	}
 }
 
+/** The case's vehicle: an existing one of the shop (checked), a new one to insert, or none. */
+async function resolveVehicle(
+	shopId: string,
+	spec: OpenCase
+): Promise<{ vehicleId: SQL | string | null; statements: BatchItem<'sqlite'>[] }> {
+	if (spec.vehicleId) {
+		if (!(await findVehicle(shopId, spec.vehicleId))) {
+			throw new AppError('invalid_request', 'There is no such vehicle in this shop.', {
+				issues: [{ path: 'vehicleId', message: 'no such vehicle in this shop' }]
+			});
+		}
+		return { vehicleId: spec.vehicleId, statements: [] };
+	}
+	if (spec.vehicle) {
+		const vehicle = vehicleStatements(shopId, spec.vehicle);
+		return { vehicleId: vehicle.vehicleId, statements: [vehicle.statement] };
+	}
+	return { vehicleId: null, statements: [] };
+}
+
 /**
  * Opens a case scored with `edition`: its vehicle (reused by VIN), the case row and its first
  * event (the answers it arrived with and the first ranking), in one batch. Returns the case id.
@@ -51,20 +71,7 @@ export async function openCase(
 	const state = applyEvent(emptyCaseState(), { seq: 1, kind: 'case_opened', payload });
 	const { ranking } = await scoreCase(edition, state, { testSteps: false });
 
-	let vehicleId: SQL | string | null = null;
-	const statements: BatchItem<'sqlite'>[] = [];
-	if (spec.vehicleId) {
-		if (!(await findVehicle(actor.shopId, spec.vehicleId))) {
-			throw new AppError('invalid_request', 'There is no such vehicle in this shop.', {
-				issues: [{ path: 'vehicleId', message: 'no such vehicle in this shop' }]
-			});
-		}
-		vehicleId = spec.vehicleId;
-	} else if (spec.vehicle) {
-		const vehicle = vehicleStatements(actor.shopId, spec.vehicle);
-		statements.push(vehicle.statement);
-		vehicleId = vehicle.vehicleId;
-	}
+	const { vehicleId, statements } = await resolveVehicle(actor.shopId, spec);
 	const caseId = generateId();
 	const createdAt = new Date(Math.floor(now.getTime() / 1000) * 1000);
 	statements.push(
