@@ -7,7 +7,8 @@ import {
 	deriveCaseState,
 	restoreCaseState,
 	settledKeys,
-	storeCaseState
+	storeCaseState,
+	type CaseState
 } from '../../cases/answers';
 import { toAsciiJson, type ResponseSerializer } from '../../api/response-json';
 import { db } from '../db';
@@ -24,7 +25,8 @@ import {
 	readTimeline,
 	TOP_CAUSES_ON_CASE,
 	type Actor,
-	type CaseRow
+	type CaseRow,
+	type NewEvent
 } from './store';
 import { checkEvent } from './validate-event';
 import { readEventView } from './event-views';
@@ -113,22 +115,22 @@ export async function appendEvent(
 	throw new AppError('conflict', 'The case is changing too fast just now; send the event again.');
 }
 
-async function tryAppend(
-	actor: Actor,
-	row: CaseRow,
-	input: AppendEvent,
-	at: Date
-): Promise<AppendResult | null> {
+/** An event only joins an open case, and a case holds a bounded number of them. */
+function assertTakesEvents(row: CaseRow) {
 	if (row.status !== 'open') {
 		throw new AppError('conflict', `The case is ${row.status}; only an open case takes events.`);
 	}
 	if (row.lastSeq >= MAX_EVENTS_PER_CASE) {
 		throw new AppError('conflict', `The case holds its limit of ${MAX_EVENTS_PER_CASE} events.`);
 	}
-	const edition =
-		input.kind === 'rescored'
-			? await rescoreTarget(row, input.payload.toEdition)
-			: await editionOf(row);
+}
+
+/** The payload to store: checked against the edition's rulebook (a `rescored` names both). */
+function checkedPayload(
+	row: CaseRow,
+	input: AppendEvent,
+	edition: PublishedEdition
+): Record<string, unknown> {
 	const checked = checkEvent(input, {
 		rulebook: edition.rulebook,
 		complaintMatches: () =>
@@ -139,44 +141,70 @@ async function tryAppend(
 			issues: checked.issues
 		});
 	}
-	const payload =
-		input.kind === 'rescored'
-			? { fromEdition: row.editionNumber, toEdition: edition.number }
-			: checked.payload;
-	const seq = row.lastSeq + 1;
-	const state = applyEvent(await currentState(row), { seq, kind: input.kind, payload });
-	const { diagnosis, ranking } = await scoreCase(edition, state, { testSteps: false });
+	return input.kind === 'rescored'
+		? { fromEdition: row.editionNumber, toEdition: edition.number }
+		: checked.payload;
+}
+
+/**
+ * Writes the event and moves the case on in one batch. False when another device took this
+ * sequence number, or this id was sent before: the caller looks.
+ */
+async function commitEvent(row: CaseRow, event: NewEvent, state: CaseState): Promise<boolean> {
 	try {
 		await db.batch([
-			eventInsert({
-				shopId: row.shopId,
-				caseId: row.id,
-				seq,
-				clientEventId: input.id,
-				kind: input.kind,
-				payload,
-				ranking,
-				editionId: edition.id,
-				actorUserId: actor.userId,
-				apiKeyId: actor.apiKeyId,
-				createdAt: at
-			}),
+			eventInsert(event),
 			db
 				.update(cases)
 				.set({
-					lastSeq: seq,
-					topCauses: ranking.slice(0, TOP_CAUSES_ON_CASE),
-					state: storeCaseState(state, seq),
-					editionId: edition.id,
-					updatedAt: at
+					lastSeq: event.seq,
+					topCauses: event.ranking.slice(0, TOP_CAUSES_ON_CASE),
+					state: storeCaseState(state, event.seq),
+					editionId: event.editionId,
+					updatedAt: event.createdAt
 				})
 				.where(and(eq(cases.id, row.id), eq(cases.lastSeq, row.lastSeq)))
 		]);
+		return true;
 	} catch (error) {
-		// Another device took this sequence number, or this id was sent before: the caller looks.
-		if (isUniqueViolation(error)) return null;
+		if (isUniqueViolation(error)) return false;
 		throw error;
 	}
+}
+
+async function tryAppend(
+	actor: Actor,
+	row: CaseRow,
+	input: AppendEvent,
+	at: Date
+): Promise<AppendResult | null> {
+	assertTakesEvents(row);
+	const edition =
+		input.kind === 'rescored'
+			? await rescoreTarget(row, input.payload.toEdition)
+			: await editionOf(row);
+	const payload = checkedPayload(row, input, edition);
+	const seq = row.lastSeq + 1;
+	const state = applyEvent(await currentState(row), { seq, kind: input.kind, payload });
+	const { diagnosis, ranking } = await scoreCase(edition, state, { testSteps: false });
+	const committed = await commitEvent(
+		row,
+		{
+			shopId: row.shopId,
+			caseId: row.id,
+			seq,
+			clientEventId: input.id,
+			kind: input.kind,
+			payload,
+			ranking,
+			editionId: edition.id,
+			actorUserId: actor.userId,
+			apiKeyId: actor.apiKeyId,
+			createdAt: at
+		},
+		state
+	);
+	if (!committed) return null;
 	const event: CaseEventView = {
 		id: input.id,
 		seq,
