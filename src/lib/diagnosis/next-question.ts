@@ -184,6 +184,119 @@ export function planNextQuestions(
 }
 
 /**
+ * Causes one hypothetical answer moves and by how much, kept as a count over fixed arrays reused
+ * for every answer: resetting array lengths in the innermost loop cost more than the arithmetic.
+ */
+interface ShiftScratch {
+	delta: Float64Array;
+	isTouched: Uint8Array;
+	touched: Int32Array;
+	count: number;
+}
+
+/** What computeQuestionGains shares with its per-observation steps: read-only but for scratch. */
+interface GainWork {
+	state: LookAheadState;
+	/** Entropy, in bits, of each cause before any hypothetical answer. */
+	entropy: Float64Array;
+	shifts: ShiftScratch;
+	/** Shared rules that can start firing on the current observation (first `liveCount`). */
+	live: CompiledRule[];
+}
+
+function createShiftScratch(causeCount: number): ShiftScratch {
+	return {
+		delta: new Float64Array(causeCount),
+		isTouched: new Uint8Array(causeCount),
+		touched: new Int32Array(causeCount),
+		count: 0
+	};
+}
+
+function addShift(scratch: ShiftScratch, causeIndex: number, lnLr: number) {
+	if (scratch.isTouched[causeIndex] === 0) {
+		scratch.isTouched[causeIndex] = 1;
+		scratch.touched[scratch.count++] = causeIndex;
+	}
+	scratch.delta[causeIndex] += lnLr;
+}
+
+/** Entropy reduction, in bits, of the shifts collected; empties the scratch for the next answer. */
+function takeReduction(scratch: ShiftScratch, logOdds: Float64Array, entropy: Float64Array) {
+	const { delta, isTouched, touched } = scratch;
+	let reduction = 0;
+	for (let touchedIndex = 0; touchedIndex < scratch.count; touchedIndex++) {
+		const causeIndex = touched[touchedIndex];
+		if (delta[causeIndex] !== 0) {
+			const after = entropyBitsOfLogOdds(logOdds[causeIndex] + delta[causeIndex]);
+			reduction += entropy[causeIndex] - after;
+		}
+		delta[causeIndex] = 0;
+		isTouched[causeIndex] = 0;
+	}
+	scratch.count = 0;
+	return reduction;
+}
+
+/**
+ * Puts into `live` the shared rules that can start firing on an answer to `observationIndex`:
+ * not firing yet (one more answer never stops a rule firing, since no leaf holds on an
+ * unanswered observation), and not waiting for some other unanswered observation. Returns how
+ * many.
+ */
+function collectLiveRules(
+	sharedRules: readonly CompiledRule[],
+	state: LookAheadState,
+	observationIndex: number,
+	live: CompiledRule[]
+): number {
+	const { facts, fired } = state;
+	let liveCount = 0;
+	for (const rule of sharedRules) {
+		if (fired[rule.index] === 1) continue;
+		let waits = false;
+		for (const required of rule.requiredFacts) {
+			if (required !== observationIndex && facts[required] === undefined) {
+				waits = true;
+				break;
+			}
+		}
+		if (!waits) live[liveCount++] = rule;
+	}
+	return liveCount;
+}
+
+/** Expected entropy reduction, in bits, of asking one unanswered observation. */
+function expectedGainOf(
+	work: GainWork,
+	observationIndex: number,
+	lookAhead: ObservationLookAhead,
+	options: AnswerOption[]
+): number {
+	const { state, entropy, shifts: scratch, live } = work;
+	const { facts } = state;
+	const liveCount = collectLiveRules(lookAhead.sharedRules, state, observationIndex, live);
+	let expectedGain = 0;
+	for (let optionIndex = 0; optionIndex < options.length; optionIndex++) {
+		const shifts = lookAhead.singleFactShifts[optionIndex];
+		for (let shiftIndex = 0; shiftIndex < shifts.length; shiftIndex++) {
+			addShift(scratch, shifts[shiftIndex].causeIndex, shifts[shiftIndex].lnLr);
+		}
+		if (liveCount > 0) {
+			facts[observationIndex] = options[optionIndex].value;
+			for (let ruleIndex = 0; ruleIndex < liveCount; ruleIndex++) {
+				const rule = live[ruleIndex];
+				if (rule.predicate(facts)) addShift(scratch, rule.causeIndex, rule.lnLr);
+			}
+			facts[observationIndex] = undefined;
+		}
+		const reduction = takeReduction(scratch, state.logOdds, entropy);
+		expectedGain += options[optionIndex].probability * reduction;
+	}
+	return expectedGain;
+}
+
+/**
  * Expected entropy reduction, in bits, per observation (rulebook order); NaN for one that is
  * answered or excluded. Only the rules that mention the observation can change (their effects on
  * one-observation rules are looked up, the others re-evaluated with compiled predicates), and
@@ -195,82 +308,25 @@ export function computeQuestionGains(
 	excluded: ReadonlySet<string>,
 	overrides?: FrequencyOverrides
 ): Float64Array {
-	const { facts, fired, logOdds } = state;
 	const lookAhead = prepareLookAhead(compiled);
 	const observations = compiled.rulebook.observations;
 	const causeCount = compiled.causes.length;
 	const entropy = new Float64Array(causeCount);
 	for (let causeIndex = 0; causeIndex < causeCount; causeIndex++) {
-		entropy[causeIndex] = entropyBitsOfLogOdds(logOdds[causeIndex]);
+		entropy[causeIndex] = entropyBitsOfLogOdds(state.logOdds[causeIndex]);
 	}
-	const delta = new Float64Array(causeCount);
-	// Causes an answer moves, kept as a count over fixed arrays: resetting array lengths in the
-	// innermost loop cost more than the arithmetic.
-	const isTouched = new Uint8Array(causeCount);
-	const touched = new Int32Array(causeCount);
-	let touchedCount = 0;
-	const live: CompiledRule[] = [];
-	let liveCount: number;
+	const work: GainWork = { state, entropy, shifts: createShiftScratch(causeCount), live: [] };
 	const gains = new Float64Array(observations.length).fill(Number.NaN);
-
 	for (let observationIndex = 0; observationIndex < observations.length; observationIndex++) {
 		const observation = observations[observationIndex];
-		if (facts[observationIndex] !== undefined || excluded.has(observation.key)) continue;
-		const { singleFactShifts, sharedRules } = lookAhead[observationIndex];
-		// Shared rules that can start firing on this answer: not firing yet (one more answer
-		// never stops a rule firing, since no leaf holds on an unanswered observation), and not
-		// waiting for some other unanswered observation.
-		liveCount = 0;
-		for (const rule of sharedRules) {
-			if (fired[rule.index] === 1) continue;
-			let waits = false;
-			for (const required of rule.requiredFacts) {
-				if (required !== observationIndex && facts[required] === undefined) {
-					waits = true;
-					break;
-				}
-			}
-			if (!waits) live[liveCount++] = rule;
-		}
-		let expectedGain = 0;
+		if (state.facts[observationIndex] !== undefined || excluded.has(observation.key)) continue;
 		const options = listAnswerOptions(observation, overrides);
-		for (let optionIndex = 0; optionIndex < options.length; optionIndex++) {
-			const shifts = singleFactShifts[optionIndex];
-			for (let shiftIndex = 0; shiftIndex < shifts.length; shiftIndex++) {
-				const { causeIndex, lnLr } = shifts[shiftIndex];
-				if (isTouched[causeIndex] === 0) {
-					isTouched[causeIndex] = 1;
-					touched[touchedCount++] = causeIndex;
-				}
-				delta[causeIndex] += lnLr;
-			}
-			if (liveCount > 0) {
-				facts[observationIndex] = options[optionIndex].value;
-				for (let ruleIndex = 0; ruleIndex < liveCount; ruleIndex++) {
-					const rule = live[ruleIndex];
-					if (!rule.predicate(facts)) continue;
-					if (isTouched[rule.causeIndex] === 0) {
-						isTouched[rule.causeIndex] = 1;
-						touched[touchedCount++] = rule.causeIndex;
-					}
-					delta[rule.causeIndex] += rule.lnLr;
-				}
-				facts[observationIndex] = undefined;
-			}
-			let reduction = 0;
-			for (let touchedIndex = 0; touchedIndex < touchedCount; touchedIndex++) {
-				const causeIndex = touched[touchedIndex];
-				if (delta[causeIndex] !== 0) {
-					const after = entropyBitsOfLogOdds(logOdds[causeIndex] + delta[causeIndex]);
-					reduction += entropy[causeIndex] - after;
-				}
-				delta[causeIndex] = 0;
-				isTouched[causeIndex] = 0;
-			}
-			touchedCount = 0;
-			expectedGain += options[optionIndex].probability * reduction;
-		}
-		gains[observationIndex] = expectedGain;
+		gains[observationIndex] = expectedGainOf(
+			work,
+			observationIndex,
+			lookAhead[observationIndex],
+			options
+		);
 	}
 	return gains;
 }
