@@ -104,6 +104,56 @@ const settingNames = [
 	'dueSoonKm'
 ] as const satisfies readonly (keyof IntervalSettings)[];
 
+/** The date the interval runs from (last change or in service): valid and not after today. */
+function checkStartDate(
+	input: ServiceIntervalInput,
+	today: number | null
+): { start: number | null; issues: CalculatorIssue[] } {
+	const last = input.lastChange;
+	const startPath = last.kind === 'changed' ? 'lastChange.date' : 'lastChange.inServiceDate';
+	const startText = last.kind === 'changed' ? last.date : last.inServiceDate;
+	const issues = checkDate(
+		startText,
+		startPath,
+		last.kind === 'changed' ? 'The date of the last coolant change' : 'The in-service date'
+	);
+	const start = issues.length === 0 ? parseIsoDate(startText) : null;
+	if (start !== null && today !== null && start > today) {
+		issues.push({
+			path: startPath,
+			message:
+				last.kind === 'changed'
+					? `The last coolant change (${last.date}) cannot be after today (${input.currentDate}).`
+					: `The in-service date (${last.inServiceDate}) cannot be after today (${input.currentDate}).`
+		});
+	}
+	return { start, issues };
+}
+
+/** The odometer at the last change (when there was one): in range and not above today's. */
+function checkLastChangeOdometer(input: ServiceIntervalInput): CalculatorIssue[] {
+	const last = input.lastChange;
+	if (last.kind !== 'changed') return [];
+	const issues = checkRange(
+		last.odometerKm,
+		odometerRange('The odometer at the last change'),
+		'lastChange.odometerKm'
+	);
+	if (
+		issues.length === 0 &&
+		Number.isFinite(input.currentOdometerKm) &&
+		input.currentOdometerKm < last.odometerKm
+	) {
+		return [
+			{
+				path: 'currentOdometerKm',
+				message: `The current odometer (${formatNumber(input.currentOdometerKm, 0)} km) is lower than at the last coolant change (${formatNumber(last.odometerKm, 0)} km).`
+			}
+		];
+	}
+	return issues;
+}
+
 /** Reads a date the calculator can count with: a real calendar day within DATE_RANGE. */
 function checkDate(text: string, path: string, what: string): CalculatorIssue[] {
 	if (parseIsoDate(text) === null) {
@@ -131,43 +181,9 @@ export function checkServiceIntervalInput(input: ServiceIntervalInput): Calculat
 			'currentOdometerKm'
 		)
 	);
-	const last = input.lastChange;
-	const startPath = last.kind === 'changed' ? 'lastChange.date' : 'lastChange.inServiceDate';
-	const startText = last.kind === 'changed' ? last.date : last.inServiceDate;
-	const startIssues = checkDate(
-		startText,
-		startPath,
-		last.kind === 'changed' ? 'The date of the last coolant change' : 'The in-service date'
-	);
+	const { start, issues: startIssues } = checkStartDate(input, today);
 	issues.push(...startIssues);
-	const start = startIssues.length === 0 ? parseIsoDate(startText) : null;
-	if (start !== null && today !== null && start > today) {
-		issues.push({
-			path: startPath,
-			message:
-				last.kind === 'changed'
-					? `The last coolant change (${last.date}) cannot be after today (${input.currentDate}).`
-					: `The in-service date (${last.inServiceDate}) cannot be after today (${input.currentDate}).`
-		});
-	}
-	if (last.kind === 'changed') {
-		const lastIssues = checkRange(
-			last.odometerKm,
-			odometerRange('The odometer at the last change'),
-			'lastChange.odometerKm'
-		);
-		issues.push(...lastIssues);
-		if (
-			lastIssues.length === 0 &&
-			Number.isFinite(input.currentOdometerKm) &&
-			input.currentOdometerKm < last.odometerKm
-		) {
-			issues.push({
-				path: 'currentOdometerKm',
-				message: `The current odometer (${formatNumber(input.currentOdometerKm, 0)} km) is lower than at the last coolant change (${formatNumber(last.odometerKm, 0)} km).`
-			});
-		}
-	}
+	issues.push(...checkLastChangeOdometer(input));
 	if (input.averageKmPerDay !== undefined) {
 		issues.push(
 			...checkRange(input.averageKmPerDay, inputRanges.averageKmPerDay, 'averageKmPerDay')
