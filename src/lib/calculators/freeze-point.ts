@@ -594,6 +594,43 @@ function describeWork(
 	];
 }
 
+/** The first step: the current mix as given, or as read from a measured freeze point. */
+function describeCurrentMix(
+	percentGiven: boolean,
+	currentPercent: number,
+	currentFreezePointC: number | null,
+	glycol: string
+): string {
+	return percentGiven
+		? `Current mix: ${formatNumber(currentPercent, 1)} % ${glycol} by volume${currentFreezePointC === null ? '' : `, which freezes at about ${formatNumber(currentFreezePointC, 1)} °C`}.`
+		: `A measured freeze point of ${formatNumber(currentFreezePointC as number, 1)} °C means about ${formatNumber(currentPercent, 1)} % ${glycol} by volume.`;
+}
+
+/** Warnings on the adjustment: diluting a mix that already protects, too strong now or after. */
+function warnAboutMix(
+	addFluid: AdjustMixValues['addFluid'],
+	mix: { currentPercent: number; currentFreezePointC: number | null; targetPercent: number },
+	targetFreezePointC: number
+): string[] {
+	const warnings: string[] = [];
+	if (
+		addFluid === 'water' &&
+		mix.currentFreezePointC !== null &&
+		mix.currentFreezePointC <= targetFreezePointC
+	) {
+		warnings.push(
+			'The current mix already protects to the target or lower; dilute only to bring it back to the specified strength.'
+		);
+	}
+	if (mix.currentPercent > GLYCOL_LIMIT_PERCENT) {
+		warnings.push(
+			`The current mix is above ${GLYCOL_LIMIT_PERCENT} % glycol: it protects less against freezing than a ${GLYCOL_LIMIT_PERCENT} % mix and should be diluted.`
+		);
+	}
+	warnings.push(...warnAboutStrength(mix.targetPercent));
+	return warnings;
+}
+
 /**
  * How much coolant to drain and replace to reach a target freeze point, on a volume basis
  * (the way concentrate and premix are sold). Strengthening replaces drained coolant with the
@@ -612,37 +649,25 @@ export function adjustMix(input: AdjustMixInput): CalculatorResult<AdjustMixValu
 		(currentPercent <= tableMaxPercent(table) ? curve.evaluate(currentPercent) : null);
 	const targetPercent = curve.invert(input.targetFreezePointC);
 	const glycol = glycolNames[table.glycol];
-	const steps: string[] = [];
-	const warnings: string[] = [];
-
-	steps.push(
-		input.currentPercent !== undefined
-			? `Current mix: ${formatNumber(currentPercent, 1)} % ${glycol} by volume${currentFreezePointC === null ? '' : `, which freezes at about ${formatNumber(currentFreezePointC, 1)} °C`}.`
-			: `A measured freeze point of ${formatNumber(currentFreezePointC as number, 1)} °C means about ${formatNumber(currentPercent, 1)} % ${glycol} by volume.`
-	);
-	steps.push(
+	const steps: string[] = [
+		describeCurrentMix(
+			input.currentPercent !== undefined,
+			currentPercent,
+			currentFreezePointC,
+			glycol
+		),
 		`Protection to ${formatNumber(input.targetFreezePointC, 1)} °C needs about ${formatNumber(targetPercent, 1)} % ${glycol} by volume.`
-	);
+	];
 
 	const { drainL, addFluid } = findDrain(
 		{ capacityL, currentPercent, targetPercent, refillPercent },
 		steps
 	);
-	if (
-		addFluid === 'water' &&
-		currentFreezePointC !== null &&
-		currentFreezePointC <= input.targetFreezePointC
-	) {
-		warnings.push(
-			'The current mix already protects to the target or lower; dilute only to bring it back to the specified strength.'
-		);
-	}
-	if (currentPercent > GLYCOL_LIMIT_PERCENT) {
-		warnings.push(
-			`The current mix is above ${GLYCOL_LIMIT_PERCENT} % glycol: it protects less against freezing than a ${GLYCOL_LIMIT_PERCENT} % mix and should be diluted.`
-		);
-	}
-	warnings.push(...warnAboutStrength(targetPercent));
+	const warnings = warnAboutMix(
+		addFluid,
+		{ currentPercent, currentFreezePointC, targetPercent },
+		input.targetFreezePointC
+	);
 
 	if (addFluid !== 'none') {
 		steps.push(...describeWork(addFluid, drainL, `${formatNumber(refillPercent, 1)} %`, glycol));
