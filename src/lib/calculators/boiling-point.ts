@@ -211,6 +211,43 @@ function describeBoilingBasis(withGlycol: boolean): string {
 		.join(' ');
 }
 
+function findGlycolMassPercent(glycol: NonNullable<BoilingPointInput['glycol']>): number {
+	return glycol.basis === 'mass'
+		? glycol.percent
+		: convertGlycolVolumeToMassPercent(glycol.percent);
+}
+
+/** Boiling points with the cap opening at the low and the high end of its tolerance. */
+function findCapToleranceRangeC(
+	atmosphericKPa: number,
+	capGaugeKPa: number,
+	waterFraction: number
+) {
+	return {
+		lowC: findBoilingPointC(
+			atmosphericKPa + capGaugeKPa * (1 - CAP_TOLERANCE_FRACTION),
+			waterFraction
+		),
+		highC: findBoilingPointC(
+			atmosphericKPa + capGaugeKPa * (1 + CAP_TOLERANCE_FRACTION),
+			waterFraction
+		)
+	};
+}
+
+/** From 1000 m up: how much lower the coolant boils than at sea level with the same cap. */
+function warnAboutAltitude(
+	altitudeM: number,
+	capGaugeKPa: number,
+	waterFraction: number,
+	boilingC: number
+): string[] {
+	if (altitudeM < 1000) return [];
+	return [
+		`At ${formatNumber(altitudeM, 0)} m the air pressure is lower, so the coolant boils about ${formatNumber(findBoilingPointC(101.325 + capGaugeKPa, waterFraction) - boilingC, 1)} °C lower than at sea level with the same cap.`
+	];
+}
+
 /**
  * Boiling point of the coolant while the cap holds: absolute pressure = standard-atmosphere
  * pressure at the altitude + the cap's gauge pressure; water from IF97, an ethylene glycol mix
@@ -225,22 +262,11 @@ export function boilingPointUnderCap(
 	const atmosphericKPa = findStandardAtmospherePressureKPa(altitudeM);
 	const absoluteKPa = atmosphericKPa + capGaugeKPa;
 	const glycol = input.glycol;
-	const massPercent = glycol
-		? glycol.basis === 'mass'
-			? glycol.percent
-			: convertGlycolVolumeToMassPercent(glycol.percent)
-		: null;
+	const massPercent = glycol ? findGlycolMassPercent(glycol) : null;
 	const waterFraction = glycol ? findWaterMoleFraction(glycol.percent, glycol.basis) : 1;
 	const boilingC = findBoilingPointC(absoluteKPa, waterFraction);
 	const waterBoilingC = findBoilingPointC(absoluteKPa);
-	const lowC = findBoilingPointC(
-		atmosphericKPa + capGaugeKPa * (1 - CAP_TOLERANCE_FRACTION),
-		waterFraction
-	);
-	const highC = findBoilingPointC(
-		atmosphericKPa + capGaugeKPa * (1 + CAP_TOLERANCE_FRACTION),
-		waterFraction
-	);
+	const { lowC, highC } = findCapToleranceRangeC(atmosphericKPa, capGaugeKPa, waterFraction);
 	const openCapC = findBoilingPointC(atmosphericKPa, waterFraction);
 	// Rounded to what the method supports: IF97 is good to 0.01 °C for water, the glycol
 	// estimate to about ±1.5 °C, so a mix is given in whole degrees.
@@ -259,12 +285,7 @@ export function boilingPointUnderCap(
 		`With the cap open (or a cap that no longer holds) the boiling point falls to ${formatNumber(openCapC, rangeDecimals)} °C.`
 	);
 
-	const warnings: string[] = [];
-	if (altitudeM >= 1000) {
-		warnings.push(
-			`At ${formatNumber(altitudeM, 0)} m the air pressure is lower, so the coolant boils about ${formatNumber(findBoilingPointC(101.325 + capGaugeKPa, waterFraction) - boilingC, 1)} °C lower than at sea level with the same cap.`
-		);
-	}
+	const warnings = warnAboutAltitude(altitudeM, capGaugeKPa, waterFraction, boilingC);
 
 	const basis = describeBoilingBasis(glycol !== undefined);
 
