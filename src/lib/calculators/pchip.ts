@@ -14,6 +14,16 @@ export interface MonotoneCubic {
 	invert(y: number): number;
 }
 
+/** The table and its Hermite slopes: all a segment needs to be evaluated. */
+interface CubicSegments {
+	xs: readonly number[];
+	ys: readonly number[];
+	/** Width of each segment. */
+	h: readonly number[];
+	/** Slope at each table point. */
+	slopes: readonly number[];
+}
+
 export function createMonotoneCubic(xs: readonly number[], ys: readonly number[]): MonotoneCubic {
 	const n = xs.length;
 	if (n < 2 || ys.length !== n) {
@@ -28,65 +38,75 @@ export function createMonotoneCubic(xs: readonly number[], ys: readonly number[]
 		h.push(xs[i + 1] - xs[i]);
 		secant.push((ys[i + 1] - ys[i]) / h[i]);
 	}
-	const slopes = findSlopes(h, secant);
+	const curve: CubicSegments = { xs, ys, h, slopes: findSlopes(h, secant) };
 	const xMin = xs[0];
 	const xMax = xs[n - 1];
 	const yLow = Math.min(ys[0], ys[n - 1]);
 	const yHigh = Math.max(ys[0], ys[n - 1]);
-	const increasing = ys[n - 1] > ys[0];
-
-	function findSegment(x: number): number {
-		let low = 0;
-		let high = n - 2;
-		while (low < high) {
-			const mid = (low + high + 1) >> 1;
-			if (xs[mid] <= x) low = mid;
-			else high = mid - 1;
-		}
-		return low;
-	}
-
-	function evaluateInSegment(k: number, x: number): number {
-		const t = (x - xs[k]) / h[k];
-		const t2 = t * t;
-		const t3 = t2 * t;
-		return (
-			(2 * t3 - 3 * t2 + 1) * ys[k] +
-			(t3 - 2 * t2 + t) * h[k] * slopes[k] +
-			(-2 * t3 + 3 * t2) * ys[k + 1] +
-			(t3 - t2) * h[k] * slopes[k + 1]
-		);
-	}
 
 	function evaluate(x: number): number {
 		if (!(x >= xMin && x <= xMax)) {
 			throw new RangeError(`x = ${x} lies outside the table (${xMin} to ${xMax}).`);
 		}
-		return evaluateInSegment(findSegment(x), x);
+		return evaluateInSegment(curve, findSegment(xs, x), x);
 	}
 
 	function invert(y: number): number {
 		if (!(y >= yLow && y <= yHigh)) {
 			throw new RangeError(`y = ${y} lies outside the table (${yLow} to ${yHigh}).`);
 		}
-		for (let i = 0; i < n; i++) if (ys[i] === y) return xs[i];
-		let k = 0;
-		while (k < n - 2 && (increasing ? ys[k + 1] < y : ys[k + 1] > y)) k++;
-		// Each segment is monotone, so bisection on it converges to the one answer; 80 halvings
-		// take any table segment below double-precision resolution.
-		let low = xs[k];
-		let high = xs[k + 1];
-		for (let i = 0; i < 80 && high - low > 0; i++) {
-			const mid = (low + high) / 2;
-			if (mid === low || mid === high) break;
-			const below = increasing ? evaluateInSegment(k, mid) < y : evaluateInSegment(k, mid) > y;
-			if (below) low = mid;
-			else high = mid;
-		}
-		return (low + high) / 2;
+		return invertInRange(curve, y);
 	}
 
 	return { xMin, xMax, evaluate, invert };
+}
+
+/** The segment holding x (x within the table): the last one starting at or before it. */
+function findSegment(xs: readonly number[], x: number): number {
+	let low = 0;
+	let high = xs.length - 2;
+	while (low < high) {
+		const mid = (low + high + 1) >> 1;
+		if (xs[mid] <= x) low = mid;
+		else high = mid - 1;
+	}
+	return low;
+}
+
+function evaluateInSegment(curve: CubicSegments, k: number, x: number): number {
+	const { xs, ys, h, slopes } = curve;
+	const t = (x - xs[k]) / h[k];
+	const t2 = t * t;
+	const t3 = t2 * t;
+	return (
+		(2 * t3 - 3 * t2 + 1) * ys[k] +
+		(t3 - 2 * t2 + t) * h[k] * slopes[k] +
+		(-2 * t3 + 3 * t2) * ys[k + 1] +
+		(t3 - t2) * h[k] * slopes[k + 1]
+	);
+}
+
+/** x at which the curve reaches y, for y within the table's y range. */
+function invertInRange(curve: CubicSegments, y: number): number {
+	const { xs, ys } = curve;
+	const n = xs.length;
+	const increasing = ys[n - 1] > ys[0];
+	for (let i = 0; i < n; i++) if (ys[i] === y) return xs[i];
+	let k = 0;
+	while (k < n - 2 && (increasing ? ys[k + 1] < y : ys[k + 1] > y)) k++;
+	// Each segment is monotone, so bisection on it converges to the one answer; 80 halvings
+	// take any table segment below double-precision resolution.
+	let low = xs[k];
+	let high = xs[k + 1];
+	for (let i = 0; i < 80 && high - low > 0; i++) {
+		const mid = (low + high) / 2;
+		if (mid === low || mid === high) break;
+		const value = evaluateInSegment(curve, k, mid);
+		const below = increasing ? value < y : value > y;
+		if (below) low = mid;
+		else high = mid;
+	}
+	return (low + high) / 2;
 }
 
 function findSlopes(h: readonly number[], secant: readonly number[]): number[] {
