@@ -27,6 +27,52 @@ function readAltitudeM(text: string | undefined, unit: string | undefined): numb
 	return altitude === undefined || unit !== 'ft' ? altitude : altitude * METRES_PER_FOOT;
 }
 
+/** The cap's gauge pressure (also in the unit it was given in), the air's and their sum. */
+function pressureRows(v: BoilingPointValues, capUnitText: string | undefined): DisplayRow[] {
+	const capUnit = choiceOf(capUnitText, pressureChoices);
+	return [
+		{
+			key: 'capGauge',
+			label: 'Cap pressure (gauge)',
+			text: show(v.capGauge),
+			also:
+				capUnit === 'kPa'
+					? undefined
+					: `${formatNumber(convertPressure(v.capGauge.value, 'kPa', capUnit), 2)} ${capUnit}`
+		},
+		{
+			key: 'atmosphericPressure',
+			label: 'Air pressure at this altitude',
+			text: show(v.atmosphericPressure)
+		},
+		{
+			key: 'absolutePressure',
+			label: 'Absolute pressure in the system',
+			text: show(v.absolutePressure)
+		}
+	];
+}
+
+/** For a glycol mix: its strength by mass and the water mole fraction the estimate used. */
+function mixRows(v: BoilingPointValues): DisplayRow[] {
+	const rows: DisplayRow[] = [];
+	if (v.glycolMassPercent) {
+		rows.push({
+			key: 'glycolMassPercent',
+			label: 'Glycol by mass',
+			text: show(v.glycolMassPercent)
+		});
+	}
+	if (v.waterMoleFraction) {
+		rows.push({
+			key: 'waterMoleFraction',
+			label: 'Water mole fraction',
+			text: show(v.waterMoleFraction, 4)
+		});
+	}
+	return rows;
+}
+
 export const boilingPointForm: CalculatorFormDefinition = {
 	calculator: 'boiling-point',
 	action: 'boilingPoint',
@@ -110,7 +156,6 @@ export const boilingPointForm: CalculatorFormDefinition = {
 	present(result, values) {
 		const v = result.values as BoilingPointValues;
 		const unit = temperatureUnitOf(values);
-		const capUnit = choiceOf(values.capUnit, pressureChoices);
 		const low = showTemperature(v.boilingPointIfCapOpensLow, unit);
 		const high = showTemperature(v.boilingPointIfCapOpensHigh, unit);
 		const rows: DisplayRow[] = [
@@ -134,40 +179,9 @@ export const boilingPointForm: CalculatorFormDefinition = {
 				text: `${low.text} to ${high.text}`,
 				also: `${low.also} to ${high.also}`
 			},
-			{
-				key: 'capGauge',
-				label: 'Cap pressure (gauge)',
-				text: show(v.capGauge),
-				also:
-					capUnit === 'kPa'
-						? undefined
-						: `${formatNumber(convertPressure(v.capGauge.value, 'kPa', capUnit), 2)} ${capUnit}`
-			},
-			{
-				key: 'atmosphericPressure',
-				label: 'Air pressure at this altitude',
-				text: show(v.atmosphericPressure)
-			},
-			{
-				key: 'absolutePressure',
-				label: 'Absolute pressure in the system',
-				text: show(v.absolutePressure)
-			}
+			...pressureRows(v, values.capUnit),
+			...mixRows(v)
 		);
-		if (v.glycolMassPercent) {
-			rows.push({
-				key: 'glycolMassPercent',
-				label: 'Glycol by mass',
-				text: show(v.glycolMassPercent)
-			});
-		}
-		if (v.waterMoleFraction) {
-			rows.push({
-				key: 'waterMoleFraction',
-				label: 'Water mole fraction',
-				text: show(v.waterMoleFraction, 4)
-			});
-		}
 		return rows;
 	}
 };
