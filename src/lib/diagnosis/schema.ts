@@ -270,75 +270,88 @@ function checkFrequencySum(
 	}
 }
 
-function checkObservation(observation: Observation): PathIssue[] {
-	const issues: PathIssue[] = [];
-	if (observation.kind === 'enum') {
-		const seen = new Set<string>();
-		observation.values.forEach((value, index) => {
-			if (seen.has(value)) {
-				issues.push({ path: ['values', index], message: `duplicate enum value "${value}"` });
-			}
-			seen.add(value);
-		});
-		for (const labelKey of Object.keys(observation.valueLabels ?? {})) {
-			if (!observation.values.includes(labelKey)) {
-				issues.push({
-					path: ['valueLabels', labelKey],
-					message: `"${labelKey}" is not one of ${observation.key}'s values`
-				});
-			}
+/** An enum's values are distinct and its labels name only those values. */
+function checkEnumValues(observation: EnumObservation, issues: PathIssue[]): void {
+	const seen = new Set<string>();
+	observation.values.forEach((value, index) => {
+		if (seen.has(value)) {
+			issues.push({ path: ['values', index], message: `duplicate enum value "${value}"` });
 		}
-	}
-	if (observation.kind === 'number') {
-		if (!(observation.min < observation.max)) {
+		seen.add(value);
+	});
+	for (const labelKey of Object.keys(observation.valueLabels ?? {})) {
+		if (!observation.values.includes(labelKey)) {
 			issues.push({
-				path: ['max'],
-				message: `max (${observation.max}) must be above min (${observation.min})`
+				path: ['valueLabels', labelKey],
+				message: `"${labelKey}" is not one of ${observation.key}'s values`
 			});
 		}
-		const seenBins = new Set<number>();
-		let total = 0;
-		observation.bins.forEach((bin, index) => {
-			total += bin.frequency;
-			if (bin.value < observation.min || bin.value > observation.max) {
-				issues.push({
-					path: ['bins', index, 'value'],
-					message: `${bin.value} is outside ${observation.key}'s range ${observation.min} to ${observation.max}`
-				});
-			}
-			if (seenBins.has(bin.value)) {
-				issues.push({
-					path: ['bins', index, 'value'],
-					message: `duplicate bin value ${bin.value}`
-				});
-			}
-			seenBins.add(bin.value);
-		});
-		checkFrequencySum(total, ['bins'], 'bin frequencies', issues);
-	} else {
-		const expected = listAnswerKeys(observation);
-		let total = 0;
-		for (const answer of expected) {
-			const frequency = observation.frequencies[answer];
-			if (frequency === undefined) {
-				issues.push({
-					path: ['frequencies'],
-					message: `frequency of "${answer}" is missing (every value needs one)`
-				});
-			} else {
-				total += frequency;
-			}
-		}
-		for (const answer of Object.keys(observation.frequencies)) {
-			if (!expected.includes(answer)) {
-				issues.push({
-					path: ['frequencies', answer],
-					message: `"${answer}" is not a value of ${observation.key} (${expected.join(', ')})`
-				});
-			}
-		}
-		checkFrequencySum(total, ['frequencies'], 'frequencies', issues);
 	}
+}
+
+/** A number's range is not empty and its bins are distinct, within it, and sum to 1. */
+function checkNumberBins(observation: NumberObservation, issues: PathIssue[]): void {
+	if (!(observation.min < observation.max)) {
+		issues.push({
+			path: ['max'],
+			message: `max (${observation.max}) must be above min (${observation.min})`
+		});
+	}
+	const seenBins = new Set<number>();
+	let total = 0;
+	observation.bins.forEach((bin, index) => {
+		total += bin.frequency;
+		if (bin.value < observation.min || bin.value > observation.max) {
+			issues.push({
+				path: ['bins', index, 'value'],
+				message: `${bin.value} is outside ${observation.key}'s range ${observation.min} to ${observation.max}`
+			});
+		}
+		if (seenBins.has(bin.value)) {
+			issues.push({
+				path: ['bins', index, 'value'],
+				message: `duplicate bin value ${bin.value}`
+			});
+		}
+		seenBins.add(bin.value);
+	});
+	checkFrequencySum(total, ['bins'], 'bin frequencies', issues);
+}
+
+/** A boolean's or enum's frequencies: one per value, no others, summing to 1. */
+function checkAnswerFrequencies(
+	observation: BooleanObservation | EnumObservation,
+	issues: PathIssue[]
+): void {
+	const expected = listAnswerKeys(observation);
+	let total = 0;
+	for (const answer of expected) {
+		const frequency = observation.frequencies[answer];
+		if (frequency === undefined) {
+			issues.push({
+				path: ['frequencies'],
+				message: `frequency of "${answer}" is missing (every value needs one)`
+			});
+		} else {
+			total += frequency;
+		}
+	}
+	for (const answer of Object.keys(observation.frequencies)) {
+		if (!expected.includes(answer)) {
+			issues.push({
+				path: ['frequencies', answer],
+				message: `"${answer}" is not a value of ${observation.key} (${expected.join(', ')})`
+			});
+		}
+	}
+	checkFrequencySum(total, ['frequencies'], 'frequencies', issues);
+}
+
+function checkObservation(observation: Observation): PathIssue[] {
+	const issues: PathIssue[] = [];
+	if (observation.kind === 'enum') checkEnumValues(observation, issues);
+	if (observation.kind === 'number') checkNumberBins(observation, issues);
+	else checkAnswerFrequencies(observation, issues);
 	observation.phrases.forEach((phrase, index) => {
 		const reason = describeInvalidValue(observation, phrase.value);
 		if (reason) issues.push({ path: ['phrases', index, 'value'], message: reason });
