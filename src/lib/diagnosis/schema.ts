@@ -384,30 +384,43 @@ function checkConditionShape(condition: unknown, path: PathSegment[], depth: num
 	if (groupKeys.length === 0 && isTopLevel) {
 		return [{ path, message: 'conditions must be { "all": [...] } or { "any": [...] }' }];
 	}
-	if (groupKeys.length > 0) {
-		const issues: PathIssue[] = [];
-		if (groupKeys.length > 1 || Object.keys(condition).length > 1) {
-			issues.push({
-				path,
-				message: 'a condition group has exactly one key, "all" or "any"'
-			});
-			return issues;
-		}
-		const groupKey = groupKeys[0];
-		if (depth > MAX_CONDITION_DEPTH) {
-			return [
-				{ path, message: `conditions nest all/any at most ${MAX_CONDITION_DEPTH} levels deep` }
-			];
-		}
-		const members = condition[groupKey];
-		if (!Array.isArray(members) || members.length === 0) {
-			return [{ path: [...path, groupKey], message: `"${groupKey}" must be a non-empty array` }];
-		}
-		members.forEach((member, index) => {
-			issues.push(...checkConditionShape(member, [...path, groupKey, index], depth + 1));
+	if (groupKeys.length > 0) return checkGroupShape(condition, groupKeys, path, depth);
+	return checkLeafShape(condition, path);
+}
+
+/** An all/any group: one key, not too deep, a non-empty array of conditions. */
+function checkGroupShape(
+	condition: Record<string, unknown>,
+	groupKeys: string[],
+	path: PathSegment[],
+	depth: number
+): PathIssue[] {
+	const issues: PathIssue[] = [];
+	if (groupKeys.length > 1 || Object.keys(condition).length > 1) {
+		issues.push({
+			path,
+			message: 'a condition group has exactly one key, "all" or "any"'
 		});
 		return issues;
 	}
+	const groupKey = groupKeys[0];
+	if (depth > MAX_CONDITION_DEPTH) {
+		return [
+			{ path, message: `conditions nest all/any at most ${MAX_CONDITION_DEPTH} levels deep` }
+		];
+	}
+	const members = condition[groupKey];
+	if (!Array.isArray(members) || members.length === 0) {
+		return [{ path: [...path, groupKey], message: `"${groupKey}" must be a non-empty array` }];
+	}
+	members.forEach((member, index) => {
+		issues.push(...checkConditionShape(member, [...path, groupKey, index], depth + 1));
+	});
+	return issues;
+}
+
+/** A leaf: fact, operator and value only, with a known operator. */
+function checkLeafShape(condition: Record<string, unknown>, path: PathSegment[]): PathIssue[] {
 	const issues: PathIssue[] = [];
 	for (const key of Object.keys(condition)) {
 		if (!LEAF_KEYS.has(key)) {
@@ -517,20 +530,10 @@ function checkLeafAgainstObservation(
 	return reason ? [{ path: [...path, 'value'], message: reason }] : [];
 }
 
-function checkCrossReferences(rulebook: z.output<typeof rulebookShapeSchema>): PathIssue[] {
-	const issues: PathIssue[] = [
-		...findDuplicateKeys(rulebook.causes, 'causes', 'cause'),
-		...findDuplicateKeys(rulebook.observations, 'observations', 'observation'),
-		...findDuplicateKeys(rulebook.rules, 'rules', 'rule'),
-		...findDuplicateKeys(rulebook.tests, 'tests', 'test')
-	];
-	const causeKeys = new Set(rulebook.causes.map((cause) => cause.key));
-	const observationsByKey = new Map<string, Observation>();
-	for (const observation of rulebook.observations) {
-		if (!observationsByKey.has(observation.key))
-			observationsByKey.set(observation.key, observation);
-	}
+type RulebookShape = z.output<typeof rulebookShapeSchema>;
 
+/** With no evidence nothing may be called likely: every prior stays below bands.likely. */
+function checkPriors(rulebook: RulebookShape, issues: PathIssue[]): void {
 	rulebook.causes.forEach((cause, index) => {
 		if (cause.prior >= rulebook.meta.bands.likely) {
 			issues.push({
@@ -539,7 +542,18 @@ function checkCrossReferences(rulebook: z.output<typeof rulebookShapeSchema>): P
 			});
 		}
 	});
+}
 
+/**
+ * Each rule names a known cause and its leaves fit known observations. Returns the causes some
+ * rule supports (lr > 1).
+ */
+function checkRuleReferences(
+	rulebook: RulebookShape,
+	observationsByKey: ReadonlyMap<string, Observation>,
+	issues: PathIssue[]
+): Set<string> {
+	const causeKeys = new Set(rulebook.causes.map((cause) => cause.key));
 	const supportedCauses = new Set<string>();
 	rulebook.rules.forEach((rule, index) => {
 		if (!causeKeys.has(rule.cause)) {
@@ -562,16 +576,15 @@ function checkCrossReferences(rulebook: z.output<typeof rulebookShapeSchema>): P
 			['rules', index, 'conditions']
 		);
 	});
+	return supportedCauses;
+}
 
-	rulebook.causes.forEach((cause, index) => {
-		if (!supportedCauses.has(cause.key)) {
-			issues.push({
-				path: ['causes', index, 'key'],
-				message: `no rule supports cause "${cause.key}" (every cause needs a rule with lr > 1)`
-			});
-		}
-	});
-
+/** Each test sets a known observation, and each test_result observation is set by a test. */
+function checkTestReferences(
+	rulebook: RulebookShape,
+	observationsByKey: ReadonlyMap<string, Observation>,
+	issues: PathIssue[]
+): void {
 	const setObservations = new Set<string>();
 	rulebook.tests.forEach((test, index) => {
 		if (!observationsByKey.has(test.sets)) {
@@ -590,5 +603,32 @@ function checkCrossReferences(rulebook: z.output<typeof rulebookShapeSchema>): P
 			});
 		}
 	});
+}
+
+function checkCrossReferences(rulebook: RulebookShape): PathIssue[] {
+	const issues: PathIssue[] = [
+		...findDuplicateKeys(rulebook.causes, 'causes', 'cause'),
+		...findDuplicateKeys(rulebook.observations, 'observations', 'observation'),
+		...findDuplicateKeys(rulebook.rules, 'rules', 'rule'),
+		...findDuplicateKeys(rulebook.tests, 'tests', 'test')
+	];
+	const observationsByKey = new Map<string, Observation>();
+	for (const observation of rulebook.observations) {
+		if (!observationsByKey.has(observation.key))
+			observationsByKey.set(observation.key, observation);
+	}
+
+	checkPriors(rulebook, issues);
+	const supportedCauses = checkRuleReferences(rulebook, observationsByKey, issues);
+	rulebook.causes.forEach((cause, index) => {
+		if (!supportedCauses.has(cause.key)) {
+			issues.push({
+				path: ['causes', index, 'key'],
+				message: `no rule supports cause "${cause.key}" (every cause needs a rule with lr > 1)`
+			});
+		}
+	});
+
+	checkTestReferences(rulebook, observationsByKey, issues);
 	return issues;
 }
