@@ -57,84 +57,93 @@ export interface ResponseSerializer {
 	stringify(response: Item): string;
 }
 
+/** What one edition's serializer keeps between requests: templates and the JSON of its text. */
+interface SerializerCache {
+	templates: Record<ListName, Map<string, Template>>;
+	/** Fired rules' evidence, by rule key. */
+	evidenceJson: Map<string, string>;
+	/** Strings of EDITION_STRING_LISTS, at most MAX_KEPT_STRINGS of them. */
+	stringJson: Map<string, string>;
+}
+
+function writeStrings(cache: SerializerCache, values: unknown[]): string {
+	const { stringJson } = cache;
+	let out = '[';
+	for (let index = 0; index < values.length; index++) {
+		const value = values[index];
+		let json = typeof value === 'string' ? stringJson.get(value) : undefined;
+		if (json === undefined) {
+			json = toAsciiJson(value);
+			if (typeof value === 'string') {
+				if (stringJson.size >= MAX_KEPT_STRINGS) stringJson.clear();
+				stringJson.set(value, json);
+			}
+		}
+		out += index === 0 ? json : `,${json}`;
+	}
+	return `${out}]`;
+}
+
+function writeEvidence(cache: SerializerCache, value: unknown[]): string {
+	let out = '[';
+	for (let index = 0; index < value.length; index++) {
+		const evidence = value[index] as Item;
+		const rule = String(evidence.rule);
+		let json = cache.evidenceJson.get(rule);
+		if (json === undefined) cache.evidenceJson.set(rule, (json = toAsciiJson(evidence)));
+		out += index === 0 ? json : `,${json}`;
+	}
+	return `${out}]`;
+}
+
+function writeValue(cache: SerializerCache, field: string, value: unknown): string {
+	if (field === 'evidence' && Array.isArray(value)) return writeEvidence(cache, value);
+	// Numbers are most of what varies; their JSON is their ASCII text.
+	if (typeof value === 'number') return Number.isFinite(value) ? String(value) : 'null';
+	if (EDITION_STRING_LISTS.has(field) && Array.isArray(value)) return writeStrings(cache, value);
+	return toAsciiJson(value);
+}
+
+function writeList(cache: SerializerCache, name: ListName, items: Item[]): string {
+	let out = '[';
+	for (let index = 0; index < items.length; index++) {
+		const item = items[index];
+		// Optional fields (a test's steps) change the template.
+		const id = name === 'tests' && item.steps ? `${item.key}+steps` : String(item.key);
+		let template = cache.templates[name].get(id);
+		if (!template) {
+			template = makeTemplate(item, VARYING_FIELDS[name]);
+			cache.templates[name].set(id, template);
+		}
+		let json = template.pieces[0];
+		for (let field = 0; field < template.fields.length; field++) {
+			const key = template.fields[field];
+			json += writeValue(cache, key, item[key]) + template.pieces[field + 1];
+		}
+		out += index === 0 ? json : `,${json}`;
+	}
+	return `${out}]`;
+}
+
+function writeResponse(cache: SerializerCache, response: Item): string {
+	let out = '';
+	for (const key of Object.keys(response)) {
+		const value = response[key];
+		if (value === undefined) continue;
+		const json =
+			key in VARYING_FIELDS && Array.isArray(value)
+				? writeList(cache, key as ListName, value as Item[])
+				: writeValue(cache, key, value);
+		out += `${out ? ',' : '{'}${toAsciiJson(key)}:${json}`;
+	}
+	return out ? `${out}}` : '{}';
+}
+
 export function createResponseSerializer(): ResponseSerializer {
-	const templates: Record<ListName, Map<string, Template>> = {
-		causes: new Map(),
-		nextQuestions: new Map(),
-		tests: new Map()
+	const cache: SerializerCache = {
+		templates: { causes: new Map(), nextQuestions: new Map(), tests: new Map() },
+		evidenceJson: new Map(),
+		stringJson: new Map()
 	};
-	const evidenceJson = new Map<string, string>();
-	const stringJson = new Map<string, string>();
-
-	function writeStrings(values: unknown[]): string {
-		let out = '[';
-		for (let index = 0; index < values.length; index++) {
-			const value = values[index];
-			let json = typeof value === 'string' ? stringJson.get(value) : undefined;
-			if (json === undefined) {
-				json = toAsciiJson(value);
-				if (typeof value === 'string') {
-					if (stringJson.size >= MAX_KEPT_STRINGS) stringJson.clear();
-					stringJson.set(value, json);
-				}
-			}
-			out += index === 0 ? json : `,${json}`;
-		}
-		return `${out}]`;
-	}
-
-	function writeValue(field: string, value: unknown): string {
-		if (field === 'evidence' && Array.isArray(value)) {
-			let out = '[';
-			for (let index = 0; index < value.length; index++) {
-				const evidence = value[index] as Item;
-				const rule = String(evidence.rule);
-				let json = evidenceJson.get(rule);
-				if (json === undefined) evidenceJson.set(rule, (json = toAsciiJson(evidence)));
-				out += index === 0 ? json : `,${json}`;
-			}
-			return `${out}]`;
-		}
-		// Numbers are most of what varies; their JSON is their ASCII text.
-		if (typeof value === 'number') return Number.isFinite(value) ? String(value) : 'null';
-		if (EDITION_STRING_LISTS.has(field) && Array.isArray(value)) return writeStrings(value);
-		return toAsciiJson(value);
-	}
-
-	function writeList(name: ListName, items: Item[]): string {
-		let out = '[';
-		for (let index = 0; index < items.length; index++) {
-			const item = items[index];
-			// Optional fields (a test's steps) change the template.
-			const id = name === 'tests' && item.steps ? `${item.key}+steps` : String(item.key);
-			let template = templates[name].get(id);
-			if (!template) {
-				template = makeTemplate(item, VARYING_FIELDS[name]);
-				templates[name].set(id, template);
-			}
-			let json = template.pieces[0];
-			for (let field = 0; field < template.fields.length; field++) {
-				const key = template.fields[field];
-				json += writeValue(key, item[key]) + template.pieces[field + 1];
-			}
-			out += index === 0 ? json : `,${json}`;
-		}
-		return `${out}]`;
-	}
-
-	return {
-		stringify(response) {
-			let out = '';
-			for (const key of Object.keys(response)) {
-				const value = response[key];
-				if (value === undefined) continue;
-				const json =
-					key in VARYING_FIELDS && Array.isArray(value)
-						? writeList(key as ListName, value as Item[])
-						: writeValue(key, value);
-				out += `${out ? ',' : '{'}${toAsciiJson(key)}:${json}`;
-			}
-			return out ? `${out}}` : '{}';
-		}
-	};
+	return { stringify: (response) => writeResponse(cache, response) };
 }
