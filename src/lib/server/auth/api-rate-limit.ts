@@ -28,6 +28,87 @@ type Entry = {
 	pending: number;
 };
 
+/** Hits of one write: the bucket's key, its entry and how many hits are being written. */
+type Batch = [string, Entry, number][];
+
+/** Counts one hit in each bucket's entry for this window; over a limit, says when it ends. */
+function countHit(
+	entries: Map<string, Entry>,
+	buckets: readonly Bucket[],
+	at: { windowStart: number; windowMs: number; nowMs: number }
+): RateDecision {
+	const { windowStart, windowMs, nowMs } = at;
+	let retryAfterS = 0;
+	let count = 0;
+	for (const bucket of buckets) {
+		let entry = entries.get(bucket.key);
+		if (!entry || entry.windowStart < windowStart) {
+			entry = { windowStart, shared: 0, inFlight: 0, pending: 0 };
+			entries.set(bucket.key, entry);
+		}
+		entry.pending += 1;
+		const total = entry.shared + entry.inFlight + entry.pending;
+		count = Math.max(count, total);
+		if (total > bucket.limit) {
+			const endsInS = Math.ceil((windowStart * 1000 + windowMs - nowMs) / 1000);
+			retryAfterS = Math.max(retryAfterS, endsInS, 1);
+		}
+	}
+	return { allowed: retryAfterS === 0, retryAfterS, count };
+}
+
+/** Moves the pending hits of this window in flight, and forgets past windows' entries. */
+function takePending(entries: Map<string, Entry>, windowStart: number): Batch {
+	const batch: Batch = [];
+	for (const [key, entry] of entries) {
+		if (entry.windowStart < windowStart) {
+			// Past windows are over: their last hits no longer limit anyone.
+			if (entry.inFlight === 0) entries.delete(key);
+			continue;
+		}
+		if (entry.pending === 0) continue;
+		batch.push([key, entry, entry.pending]);
+		entry.inFlight += entry.pending;
+		entry.pending = 0;
+	}
+	return batch;
+}
+
+/** Adds the batch to the shared counters in one statement; returns their totals by key. */
+async function addCounts(db: Database, batch: Batch): Promise<Map<string, number>> {
+	// A counter left from an earlier window starts again; one from a later window (another
+	// server's clock running ahead) is kept as it is.
+	const rows = await db
+		.insert(rateLimits)
+		.values(
+			batch.map(([key, entry, hits]) => ({
+				key,
+				count: hits,
+				windowStart: entry.windowStart
+			}))
+		)
+		.onConflictDoUpdate({
+			target: rateLimits.key,
+			set: {
+				count: sql`CASE
+					WHEN ${rateLimits.windowStart} = excluded.window_start THEN ${rateLimits.count} + excluded.count
+					WHEN ${rateLimits.windowStart} > excluded.window_start THEN ${rateLimits.count}
+					ELSE excluded.count END`,
+				windowStart: sql`MAX(${rateLimits.windowStart}, excluded.window_start)`
+			}
+		})
+		.returning({ key: rateLimits.key, count: rateLimits.count });
+	return new Map(rows.map((row) => [row.key, row.count]));
+}
+
+/** The batch is written: its hits are no longer in flight, and entries learn the totals. */
+function settleBatch(entries: Map<string, Entry>, batch: Batch, totals: Map<string, number>) {
+	for (const [key, entry, hits] of batch) {
+		entry.inFlight -= hits;
+		if (entries.get(key) === entry) entry.shared = totals.get(key) ?? entry.shared + hits;
+	}
+}
+
 /**
  * Per-minute API counters shared through the `rate_limits` table without a write per request.
  *
@@ -68,70 +149,20 @@ export function createRateCounter(
 	}
 
 	function hit(buckets: readonly Bucket[], nowMs = clock()): RateDecision {
-		const windowStart = currentWindow(nowMs);
-		let retryAfterS = 0;
-		let count = 0;
-		for (const bucket of buckets) {
-			let entry = entries.get(bucket.key);
-			if (!entry || entry.windowStart < windowStart) {
-				entry = { windowStart, shared: 0, inFlight: 0, pending: 0 };
-				entries.set(bucket.key, entry);
-			}
-			entry.pending += 1;
-			const total = entry.shared + entry.inFlight + entry.pending;
-			count = Math.max(count, total);
-			if (total > bucket.limit) {
-				const endsInS = Math.ceil((windowStart * 1000 + windowMs - nowMs) / 1000);
-				retryAfterS = Math.max(retryAfterS, endsInS, 1);
-			}
-		}
+		const decision = countHit(entries, buckets, {
+			windowStart: currentWindow(nowMs),
+			windowMs,
+			nowMs
+		});
 		schedule();
-		return { allowed: retryAfterS === 0, retryAfterS, count };
+		return decision;
 	}
 
 	async function write(nowMs: number) {
-		const windowStart = currentWindow(nowMs);
-		const batch: [string, Entry, number][] = [];
-		for (const [key, entry] of entries) {
-			if (entry.windowStart < windowStart) {
-				// Past windows are over: their last hits no longer limit anyone.
-				if (entry.inFlight === 0) entries.delete(key);
-				continue;
-			}
-			if (entry.pending === 0) continue;
-			batch.push([key, entry, entry.pending]);
-			entry.inFlight += entry.pending;
-			entry.pending = 0;
-		}
+		const batch = takePending(entries, currentWindow(nowMs));
 		if (batch.length === 0) return;
 		try {
-			// A counter left from an earlier window starts again; one from a later window (another
-			// server's clock running ahead) is kept as it is.
-			const rows = await db
-				.insert(rateLimits)
-				.values(
-					batch.map(([key, entry, hits]) => ({
-						key,
-						count: hits,
-						windowStart: entry.windowStart
-					}))
-				)
-				.onConflictDoUpdate({
-					target: rateLimits.key,
-					set: {
-						count: sql`CASE
-							WHEN ${rateLimits.windowStart} = excluded.window_start THEN ${rateLimits.count} + excluded.count
-							WHEN ${rateLimits.windowStart} > excluded.window_start THEN ${rateLimits.count}
-							ELSE excluded.count END`,
-						windowStart: sql`MAX(${rateLimits.windowStart}, excluded.window_start)`
-					}
-				})
-				.returning({ key: rateLimits.key, count: rateLimits.count });
-			const totals = new Map(rows.map((row) => [row.key, row.count]));
-			for (const [key, entry, hits] of batch) {
-				entry.inFlight -= hits;
-				if (entries.get(key) === entry) entry.shared = totals.get(key) ?? entry.shared + hits;
-			}
+			settleBatch(entries, batch, await addCounts(db, batch));
 		} catch (error) {
 			// Nothing was written: count the hits again next time.
 			for (const [, entry, hits] of batch) {
