@@ -1,7 +1,13 @@
 // The diagnosis engine: one diagnoser per rulebook edition ranks causes, next questions and tests.
 import { buildComplaintMatcher, type ComplaintMatch } from './complaint';
 import { buildEngineEvaluator } from './engine';
-import { compileRulebook, listFiredRuleKeys, toFactVector, type FactVector } from './evaluate';
+import {
+	compileRulebook,
+	listFiredRuleKeys,
+	toFactVector,
+	type CompiledRulebook,
+	type FactVector
+} from './evaluate';
 import { adviseNextStep, findObservationMinutes, type Advice } from './advice';
 import {
 	computeQuestionGains,
@@ -94,6 +100,105 @@ function listUnique(items: Iterable<string>): string[] {
 	return [...new Set(items)];
 }
 
+/** An edition made ready to answer: compiled once, shared by every request. */
+interface PreparedEdition {
+	book: Rulebook;
+	compiled: CompiledRulebook;
+	engine: ReturnType<typeof buildEngineEvaluator>;
+	matcher: ReturnType<typeof buildComplaintMatcher>;
+	testTargets: ReturnType<typeof findTestTargets>;
+	observationMinutes: ReturnType<typeof findObservationMinutes>;
+	causesByKey: Map<string, Rulebook['causes'][number]>;
+	frequencies: DiagnoserOptions['frequencies'];
+}
+
+async function decide(ed: PreparedEdition, input: DiagnoseInput) {
+	const { compiled, matcher, engine } = ed;
+	const unknown = new Set(
+		(input.unknown ?? []).filter((key) => compiled.observationsByKey.has(key))
+	);
+	// Only own keys count: an observation named like an Object.prototype member must not
+	// read an inherited value.
+	const explicit = Object.entries(input.observations).filter(
+		([key, value]) => value !== null && value !== undefined && compiled.observationsByKey.has(key)
+	) as [string, ObservationValue][];
+	const settled = new Set([...explicit.map(([key]) => key), ...unknown]);
+	const matched = input.complaint ? matcher.matchComplaint(input.complaint, settled) : [];
+	const facts = toFactVector(compiled, [
+		...explicit,
+		...matched.map((match): [string, ObservationValue] => [match.key, match.value])
+	]);
+	const fired = await engine.run(facts, { skipWaitingRules: true });
+	const logOdds = sumLogOdds(compiled, fired);
+	return {
+		unknown,
+		matched,
+		facts,
+		fired,
+		logOdds,
+		causes: rankCauses(compiled, fired, logOdds)
+	};
+}
+
+function describeFacts(book: Rulebook, facts: FactVector): Record<string, ObservationValue> {
+	return Object.fromEntries(
+		book.observations.flatMap((observation, index) =>
+			facts[index] === undefined ? [] : [[observation.key, facts[index]]]
+		)
+	);
+}
+
+/** The edition's cautions, then those of the likely causes and of the first tests, once each. */
+function listCautions(
+	ed: PreparedEdition,
+	causes: Awaited<ReturnType<typeof decide>>['causes'],
+	tests: ReturnType<typeof planTests>
+): string[] {
+	return listUnique([
+		...ed.book.meta.cautions,
+		...causes
+			.filter((cause) => cause.band === 'likely')
+			.flatMap((cause) => ed.causesByKey.get(cause.key)?.cautions ?? []),
+		...tests.slice(0, FIRST_TESTS_WITH_CAUTIONS).flatMap((test) => test.cautions)
+	]);
+}
+
+async function analyse(
+	ed: PreparedEdition,
+	input: DiagnoseInput,
+	runOptions: AnalyseOptions = {}
+): Promise<Analysis> {
+	const { compiled, book } = ed;
+	const { unknown, matched, facts, fired, logOdds, causes } = await decide(ed, input);
+	const gains = computeQuestionGains(
+		compiled,
+		{ facts, fired, logOdds },
+		unknown,
+		runOptions.frequencies ?? ed.frequencies
+	);
+	const causeOrder = causes.map((cause) => compiled.causeIndexByKey.get(cause.key) as number);
+	const tests = planTests(
+		compiled,
+		ed.testTargets,
+		gains,
+		causeOrder,
+		(key) => facts[compiled.observationIndexByKey.get(key) ?? -1] !== undefined || unknown.has(key)
+	);
+	const { advice, lowValue } = adviseNextStep(compiled, gains, ed.observationMinutes, tests);
+	const nextQuestions = describeNextQuestions(compiled, gains, runOptions.questionLimit, lowValue);
+	const cautions = listCautions(ed, causes, tests);
+	return {
+		causes,
+		nextQuestions,
+		tests,
+		matched,
+		cautions,
+		advice,
+		facts: describeFacts(book, facts),
+		firedRules: listFiredRuleKeys(compiled, fired)
+	};
+}
+
 /**
  * Builds everything an edition needs once (json-rules-engine, the look-ahead's predicates and
  * index, the complaint matcher); reuse the diagnoser for every request scored with that edition.
@@ -111,98 +216,26 @@ export function createDiagnoser(rulebook: Rulebook, options: DiagnoserOptions = 
 	const engine = buildEngineEvaluator(compiled);
 	prepareLookAhead(compiled);
 	const matcher = buildComplaintMatcher(book);
-	const testTargets = findTestTargets(compiled);
-	const observationMinutes = findObservationMinutes(compiled);
-	const causesByKey = new Map(book.causes.map((cause) => [cause.key, cause]));
-
-	/** The answers (explicit, then matched from the complaint) and the rules they fire. */
-	async function decide(input: DiagnoseInput) {
-		const unknown = new Set(
-			(input.unknown ?? []).filter((key) => compiled.observationsByKey.has(key))
-		);
-		// Only own keys count: an observation named like an Object.prototype member must not
-		// read an inherited value.
-		const explicit = Object.entries(input.observations).filter(
-			([key, value]) => value !== null && value !== undefined && compiled.observationsByKey.has(key)
-		) as [string, ObservationValue][];
-		const settled = new Set([...explicit.map(([key]) => key), ...unknown]);
-		const matched = input.complaint ? matcher.matchComplaint(input.complaint, settled) : [];
-		const facts = toFactVector(compiled, [
-			...explicit,
-			...matched.map((match): [string, ObservationValue] => [match.key, match.value])
-		]);
-		const fired = await engine.run(facts, { skipWaitingRules: true });
-		const logOdds = sumLogOdds(compiled, fired);
-		return {
-			unknown,
-			matched,
-			facts,
-			fired,
-			logOdds,
-			causes: rankCauses(compiled, fired, logOdds)
-		};
-	}
-
-	function describeFacts(facts: FactVector): Record<string, ObservationValue> {
-		return Object.fromEntries(
-			book.observations.flatMap((observation, index) =>
-				facts[index] === undefined ? [] : [[observation.key, facts[index]]]
-			)
-		);
-	}
-
-	async function analyse(input: DiagnoseInput, runOptions: AnalyseOptions = {}): Promise<Analysis> {
-		const { unknown, matched, facts, fired, logOdds, causes } = await decide(input);
-		const gains = computeQuestionGains(
-			compiled,
-			{ facts, fired, logOdds },
-			unknown,
-			runOptions.frequencies ?? options.frequencies
-		);
-		const causeOrder = causes.map((cause) => compiled.causeIndexByKey.get(cause.key) as number);
-		const tests = planTests(
-			compiled,
-			testTargets,
-			gains,
-			causeOrder,
-			(key) =>
-				facts[compiled.observationIndexByKey.get(key) ?? -1] !== undefined || unknown.has(key)
-		);
-		const { advice, lowValue } = adviseNextStep(compiled, gains, observationMinutes, tests);
-		const nextQuestions = describeNextQuestions(
-			compiled,
-			gains,
-			runOptions.questionLimit,
-			lowValue
-		);
-		const cautions = listUnique([
-			...book.meta.cautions,
-			...causes
-				.filter((cause) => cause.band === 'likely')
-				.flatMap((cause) => causesByKey.get(cause.key)?.cautions ?? []),
-			...tests.slice(0, FIRST_TESTS_WITH_CAUTIONS).flatMap((test) => test.cautions)
-		]);
-		return {
-			causes,
-			nextQuestions,
-			tests,
-			matched,
-			cautions,
-			advice,
-			facts: describeFacts(facts),
-			firedRules: listFiredRuleKeys(compiled, fired)
-		};
-	}
+	const ed: PreparedEdition = {
+		book,
+		compiled,
+		engine,
+		matcher,
+		testTargets: findTestTargets(compiled),
+		observationMinutes: findObservationMinutes(compiled),
+		causesByKey: new Map(book.causes.map((cause) => [cause.key, cause])),
+		frequencies: options.frequencies
+	};
 
 	return {
 		rulebook: book,
-		analyse,
+		analyse: (input, runOptions) => analyse(ed, input, runOptions),
 		async rank(input) {
-			const { matched, facts, fired, causes } = await decide(input);
+			const { matched, facts, fired, causes } = await decide(ed, input);
 			return {
 				causes,
 				matched,
-				facts: describeFacts(facts),
+				facts: describeFacts(book, facts),
 				firedRules: listFiredRuleKeys(compiled, fired)
 			};
 		},
