@@ -594,6 +594,13 @@ function describeWork(
 	];
 }
 
+/** The chart's mark for the current mix, when its freeze point is known. */
+function markNow(currentPercent: number, currentFreezePointC: number | null) {
+	return currentFreezePointC === null
+		? []
+		: [{ label: 'Now', x: currentPercent, y: currentFreezePointC }];
+}
+
 /** The first step: the current mix as given, or as read from a measured freeze point. */
 function describeCurrentMix(
 	percentGiven: boolean,
@@ -693,9 +700,7 @@ export function adjustMix(input: AdjustMixInput): CalculatorResult<AdjustMixValu
 		cautions: [CAUTION_HOT_CAP, CAUTION_COOLANT_POISON, CAUTION_FOLLOW_PROCEDURE],
 		charts: [
 			describeFreezeChart(table, [
-				...(currentFreezePointC === null
-					? []
-					: [{ label: 'Now', x: currentPercent, y: currentFreezePointC }]),
+				...markNow(currentPercent, currentFreezePointC),
 				{ label: 'Target', x: targetPercent, y: input.targetFreezePointC }
 			])
 		],

@@ -109,6 +109,14 @@ function settleBatch(entries: Map<string, Entry>, batch: Batch, totals: Map<stri
 	}
 }
 
+export type RateCounterOptions = {
+	windowS: number;
+	syncMs: number;
+	onError?: (error: unknown) => void;
+	/** The clock, in ms; tests give a fixed one. */
+	now?: () => number;
+};
+
 /**
  * Per-minute API counters shared through the `rate_limits` table without a write per request.
  *
@@ -120,16 +128,7 @@ function settleBatch(entries: Map<string, Entry>, batch: Batch, totals: Map<stri
  * time. Sign-in, sign-up, reset and invite limits do not use this: they write on every attempt
  * (`signin-throttle.ts`, `form-rate-limit.ts`), because there a few extra tries matter.
  */
-export function createRateCounter(
-	db: Database,
-	options: {
-		windowS: number;
-		syncMs: number;
-		onError?: (error: unknown) => void;
-		/** The clock, in ms; tests give a fixed one. */
-		now?: () => number;
-	}
-): RateCounter {
+export function createRateCounter(db: Database, options: RateCounterOptions): RateCounter {
 	const windowMs = options.windowS * 1000;
 	const clock = options.now ?? Date.now;
 	const entries = new Map<string, Entry>();
