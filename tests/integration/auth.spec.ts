@@ -164,16 +164,7 @@ describe('signing in and out', () => {
 
 	it('sets an httpOnly, SameSite session cookie whose token is not stored in the database', async () => {
 		const { email, password } = await createShop();
-		const res = await fetch(`${newClient().baseUrl}/signin`, {
-			method: 'POST',
-			redirect: 'manual',
-			headers: {
-				origin: newClient().baseUrl,
-				accept: 'text/html',
-				'content-type': 'application/x-www-form-urlencoded'
-			},
-			body: new URLSearchParams({ email, password }).toString()
-		});
+		const res = await newClient().postForm('/signin', { email, password });
 		expect(res.status).toBe(303);
 		const cookie = res.headers.getSetCookie().find((c) => c.startsWith('causeway_session='))!;
 		expect(cookie).toMatch(/HttpOnly/i);

@@ -32,16 +32,7 @@ describe('security headers', () => {
 		const { email, password } = await createShop();
 		const res = await newClient().action('/signin', { email, password });
 		expect(res.type).toBe('redirect');
-		const raw = await fetch(`${newClient().baseUrl}/signin`, {
-			method: 'POST',
-			redirect: 'manual',
-			headers: {
-				origin: newClient().baseUrl,
-				accept: 'text/html',
-				'content-type': 'application/x-www-form-urlencoded'
-			},
-			body: new URLSearchParams({ email, password }).toString()
-		});
+		const raw = await newClient().postForm('/signin', { email, password });
 		expect(raw.status).toBe(303);
 		expect(raw.headers.get('cache-control')).toBe('no-store');
 	});

@@ -36,6 +36,19 @@ export class Client {
 		return this.request(path, init);
 	}
 
+	/** A form posted the way a browser without JavaScript does (no action protocol): the raw answer. */
+	postForm(path: string, fields: Record<string, string>) {
+		return this.request(path, {
+			method: 'POST',
+			headers: {
+				origin: this.baseUrl,
+				accept: 'text/html',
+				'content-type': 'application/x-www-form-urlencoded'
+			},
+			body: new URLSearchParams(fields).toString()
+		});
+	}
+
 	/** A form action posted the way `use:enhance` does; returns the action result. */
 	async action(path: string, fields: Record<string, string>) {
 		const res = await this.request(path, {
